@@ -1,0 +1,304 @@
+r"""Internal impedance of the centre conductor and of the tubular shield.
+
+Both are exact solutions of the diffusion equation :math:`\nabla^2 J = j\omega\mu\sigma J` in
+a round wire and in a tube, written with exponentially scaled Bessel functions so that nothing
+overflows for any frequency or radius-to-skin-depth ratio (the plain functions overflow near
+:math:`|ka| \approx 700`). Where the argument is large the same expressions are evaluated
+through their Hankel asymptotic series, in real arithmetic; the switch point was chosen by
+measurement so that both paths agree to better than 1e-9 relative on either side of it
+(``tests/physics/test_internal_impedance.py`` checks the seams, the benchmark the whole range).
+DC and high-frequency limits come out of these same functions.
+
+Known limit: for a shield wall thinner than about 0.01 skin depth (copper, 50 um wall, below
+~200 Hz) the tube formula loses digits to cancellation in its denominator; both paths are then
+good to ~1e-4 relative, which is far inside the scatter of real resistivities.
+
+The functions return the internal impedance per unit length :math:`Z_i = R + jX_i`
+[ohm m^-1]; the internal inductance is :math:`X_i/\omega`.
+"""
+
+from __future__ import annotations
+
+from functools import lru_cache
+
+import numpy as np
+from scipy import special
+
+from physics.skin import skin_depth
+
+#: Radius-to-skin-depth ratio above which the asymptotic series replaces the Bessel ratio.
+#: Chosen by measurement against 40-digit mpmath values: at u = 12 with 12 terms the series
+#: of the round wire and of the tube (any wall of at least 0.01 skin depth) agree with the
+#: scaled-Bessel form to < 2e-10 relative in R and in X; at u = 10 only to 1e-9.
+ASYMPTOTIC_MIN_RATIO = 12.0
+#: Number of terms kept in the asymptotic series (asymptotic: more is not better below u ~ 15).
+ASYMPTOTIC_TERMS = 12
+#: Exponent below which the inner-to-outer wall coupling exp(-2 t / delta) is negligible
+#: against double precision (exp(-40) ~ 4e-18).
+_WALL_COUPLING_NEGLIGIBLE = 40.0
+
+_METHODS = ("auto", "exact", "asymptotic")
+
+
+def hankel_asymptotic_coefficients(order, n_terms):
+    r"""Coefficients :math:`a_k(\nu)` of the Hankel large-argument expansions.
+
+    .. math:: a_k(\nu) = \frac{(4\nu^2 - 1^2)(4\nu^2 - 3^2)\cdots(4\nu^2 - (2k-1)^2)}{k!\,8^k}
+
+    (A&S 9.2.9-9.2.10 and 9.7.1-9.7.2 in [1]_).
+
+    Parameters
+    ----------
+    order : float
+        Bessel order :math:`\nu`.
+    n_terms : int
+        Number of coefficients, :math:`k = 0 \ldots n-1`.
+
+    Returns
+    -------
+    numpy.ndarray
+        Real coefficients, shape ``(n_terms,)``.
+
+    References
+    ----------
+    .. [1] M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*, NBS, 1964.
+    """
+    mu = 4.0 * order * order
+    coeffs = np.ones(n_terms)
+    for k in range(1, n_terms):
+        coeffs[k] = coeffs[k - 1] * (mu - (2 * k - 1) ** 2) / (k * 8.0)
+    return coeffs
+
+
+@lru_cache(maxsize=None)
+def _ratio_series(n_terms):
+    """Coefficients r_k of S_0(w)/S_1(w), S_nu(w) = sum a_k(nu) w^k (power-series division)."""
+    num = hankel_asymptotic_coefficients(0.0, n_terms)
+    den = hankel_asymptotic_coefficients(1.0, n_terms)
+    r = np.zeros(n_terms)
+    for k in range(n_terms):
+        r[k] = (num[k] - np.dot(r[:k], den[k:0:-1])) / den[0]
+    return r
+
+
+@lru_cache(maxsize=None)
+def _directed_series(direction, n_terms):
+    """Real and imaginary parts of c_k = r_k * direction**k, highest power first (for polyval)."""
+    c = _ratio_series(n_terms) * complex(direction) ** np.arange(n_terms)
+    return c.real[::-1].copy(), c.imag[::-1].copy()
+
+
+def _horner(coeffs_high_first, v):
+    out = np.full_like(v, coeffs_high_first[0])
+    for c in coeffs_high_first[1:]:
+        out *= v
+        out += c
+    return out
+
+
+def _check_method(method):
+    if method not in _METHODS:
+        raise ValueError(f"method must be one of {_METHODS}, got {method!r}")
+
+
+# --------------------------------------------------------------------------- round wire
+
+
+def _wire_factor_exact(u):
+    """F = (z/2) J0(z)/J1(z), z = (1 - j) u, from exponentially scaled Bessel functions."""
+    z = (1.0 - 1.0j) * u
+    with np.errstate(invalid="ignore", divide="ignore"):
+        f = 0.5 * z * special.jve(0, z) / special.jve(1, z)
+    return np.where(u == 0.0, 1.0 + 0.0j, f)
+
+
+def _wire_factor_asymptotic(u):
+    """Same F from the Hankel series: F = (1 + j) u/2 * sum c_k u^-k, c_k = r_k ((j - 1)/2)^k."""
+    re_c, im_c = _directed_series(complex(-0.5, 0.5), ASYMPTOTIC_TERMS)
+    v = 1.0 / u
+    s_re = _horner(re_c, v)
+    s_im = _horner(im_c, v)
+    half_u = 0.5 * u
+    return (half_u * (s_re - s_im)) + 1.0j * (half_u * (s_re + s_im))
+
+
+def wire_internal_impedance(radius, resistivity, frequency, relative_permeability=1.0,
+                            method="auto"):
+    r"""Internal impedance per unit length of a solid round wire (exact Bessel form).
+
+    Parameters
+    ----------
+    radius : array_like
+        Wire radius :math:`a` [m], > 0.
+    resistivity : array_like
+        Resistivity :math:`\rho` [ohm m], > 0.
+    frequency : array_like
+        Frequency :math:`f` [Hz], > 0.
+    relative_permeability : array_like, optional
+        Relative permeability :math:`\mu_r` of the wire [-].
+    method : {"auto", "exact", "asymptotic"}
+        ``"exact"`` evaluates the scaled Bessel ratio everywhere; ``"asymptotic"`` the Hankel
+        series everywhere (accurate only for :math:`a/\delta \gtrsim 10`); ``"auto"`` picks
+        per element at :data:`ASYMPTOTIC_MIN_RATIO`.
+
+    Returns
+    -------
+    numpy.ndarray of complex
+        :math:`Z_i = R + j\omega L_i` [ohm m^-1].
+
+    Notes
+    -----
+    With :math:`k = (1-j)/\delta` and :math:`R_{dc} = \rho/(\pi a^2)` (Eq. 6.24 of [1]_):
+
+    .. math:: Z_i = \frac{k\rho}{2\pi a}\frac{J_0(ka)}{J_1(ka)}
+              = R_{dc}\,\frac{ka}{2}\frac{J_0(ka)}{J_1(ka)}
+
+    evaluated as ``jve(0, ka)/jve(1, ka)`` (the scale factors cancel). For
+    :math:`a/\delta \ge` :data:`ASYMPTOTIC_MIN_RATIO` the ratio comes from the Hankel series
+    (A&S 9.2.7 in [2]_) divided term by term; it gives the classic limits
+    :math:`R \to R_{dc}` and :math:`\omega L_i \to \omega\mu/(8\pi)` at low frequency and
+    :math:`Z_i \to (1+j) R_s/(2\pi a) + R_{dc}/4` at high frequency.
+
+    References
+    ----------
+    .. [1] S. Ramo, J. R. Whinnery, T. Van Duzer, *Fields and Waves in Communication
+       Electronics*, 3rd ed., Wiley, 1994, Sec. 5.5 (Eq. 5.5(12)).
+    .. [2] M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*, NBS, 1964.
+    .. [3] S. A. Schelkunoff, *Bell Syst. Tech. J.* 13 (1934) 532-579, Eq. (37).
+    """
+    _check_method(method)
+    a, rho, f, mu_r = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (
+        radius, resistivity, frequency, relative_permeability)))
+    delta = skin_depth(rho, f, mu_r)
+    u = a / delta
+    r_dc = rho / (np.pi * a * a)
+    if method == "exact":
+        factor = _wire_factor_exact(u)
+    elif method == "asymptotic":
+        factor = _wire_factor_asymptotic(u)
+    else:
+        factor = np.empty(u.shape, dtype=complex)
+        big = u >= ASYMPTOTIC_MIN_RATIO
+        factor[big] = _wire_factor_asymptotic(u[big])
+        small = ~big
+        factor[small] = _wire_factor_exact(u[small])
+    return r_dc * factor
+
+
+# --------------------------------------------------------------------------- tube (shield)
+
+
+def _tube_ratio_exact(ub, uc):
+    """N/D of Schelkunoff's tube formula from scaled Bessel functions (no overflow)."""
+    x = (1.0 + 1.0j) * ub
+    y = (1.0 + 1.0j) * uc
+    # e = I-type/K-type scale bookkeeping: exp((x - y) + Re(x - y)), |e| = exp(-2 (c - b)/delta)
+    e = np.exp((x - y) + (ub - uc))
+    i0x, i1x = special.ive(0, x), special.ive(1, x)
+    k0x, k1x = special.kve(0, x), special.kve(1, x)
+    i1y, k1y = special.ive(1, y), special.kve(1, y)
+    num = i0x * k1y * e + k0x * i1y
+    den = k1x * i1y - i1x * k1y * e
+    return num / den
+
+
+def _tube_ratio_asymptotic_thick(ub):
+    """N/D -> K0(x)/K1(x) for a wall many skin depths thick; series c_k = r_k ((1 - j)/2)^k."""
+    re_c, im_c = _directed_series(complex(0.5, -0.5), ASYMPTOTIC_TERMS)
+    v = 1.0 / ub
+    return _horner(re_c, v) + 1.0j * _horner(im_c, v)
+
+
+def _tube_ratio_asymptotic_general(ub, uc):
+    """N/D from the Hankel series of I and K at both wall surfaces (any wall thickness)."""
+    n = ASYMPTOTIC_TERMS
+    a0 = hankel_asymptotic_coefficients(0.0, n)
+    a1 = hankel_asymptotic_coefficients(1.0, n)
+    alt = (-1.0) ** np.arange(n)
+    x_inv = 1.0 / ((1.0 + 1.0j) * ub)
+    y_inv = 1.0 / ((1.0 + 1.0j) * uc)
+
+    def series(coeffs, w):
+        return np.polyval(coeffs[::-1], w)
+
+    s0x, t0x = series(a0, x_inv), series(a0 * alt, x_inv)
+    s1x, t1x = series(a1, x_inv), series(a1 * alt, x_inv)
+    s1y, t1y = series(a1, y_inv), series(a1 * alt, y_inv)
+    q = np.exp(-2.0 * (1.0 + 1.0j) * (uc - ub))
+    return (q * t0x * s1y + s0x * t1y) / (s1x * t1y - q * t1x * s1y)
+
+
+def tube_internal_impedance(inner_radius, outer_radius, resistivity, frequency,
+                            relative_permeability=1.0, method="auto"):
+    r"""Internal impedance per unit length of a tubular shield, return current inside.
+
+    The shield of a coax carries the return current, which the field of the centre conductor
+    pulls to the inner surface of the tube; nothing is outside (perfectly shielded line).
+
+    Parameters
+    ----------
+    inner_radius : array_like
+        Inner radius of the tube :math:`b` [m] (the dielectric radius), > 0.
+    outer_radius : array_like
+        Outer radius :math:`c` [m], > ``inner_radius``.
+    resistivity : array_like
+        Resistivity of the tube [ohm m].
+    frequency : array_like
+        Frequency [Hz], > 0.
+    relative_permeability : array_like, optional
+        Relative permeability of the tube [-].
+    method : {"auto", "exact", "asymptotic"}
+        As in :func:`wire_internal_impedance`.
+
+    Returns
+    -------
+    numpy.ndarray of complex
+        :math:`Z_{bb} = R + j\omega L_i` [ohm m^-1].
+
+    Notes
+    -----
+    Schelkunoff's internal impedance of a tube referred to its inner surface (Eq. (47) of
+    [1]_; Eq. 6.25 of [2]_), with :math:`\gamma = (1+j)/\delta`:
+
+    .. math:: Z_{bb} = \frac{\gamma\rho}{2\pi b}\,
+        \frac{I_0(\gamma b)K_1(\gamma c) + K_0(\gamma b)I_1(\gamma c)}
+             {I_1(\gamma c)K_1(\gamma b) - I_1(\gamma b)K_1(\gamma c)}
+
+    Written with ``ive``/``kve`` the exponential factors collapse to
+    :math:`e^{(x-y)+\mathrm{Re}(x-y)}`, of modulus :math:`e^{-2(c-b)/\delta} \le 1`. For
+    :math:`b/\delta \ge` :data:`ASYMPTOTIC_MIN_RATIO` all four functions are replaced by their
+    Hankel series (A&S 9.7.1-9.7.2 in [3]_); for a wall many skin depths thick this reduces to
+    :math:`K_0(\gamma b)/K_1(\gamma b)`. Limits: :math:`\rho/(\pi(c^2-b^2))` at DC and
+    :math:`(1+j)R_s/(2\pi b)` at high frequency.
+
+    References
+    ----------
+    .. [1] S. A. Schelkunoff, "The electromagnetic theory of coaxial transmission lines and
+       cylindrical shields", *Bell Syst. Tech. J.* 13 (1934) 532-579.
+    .. [2] S. Ramo, J. R. Whinnery, T. Van Duzer, *Fields and Waves in Communication
+       Electronics*, 3rd ed., Wiley, 1994, Sec. 5.5.
+    .. [3] M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*, NBS, 1964.
+    """
+    _check_method(method)
+    b, c, rho, f, mu_r = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (
+        inner_radius, outer_radius, resistivity, frequency, relative_permeability)))
+    delta = skin_depth(rho, f, mu_r)
+    ub = b / delta
+    uc = c / delta
+    if method == "exact":
+        ratio = _tube_ratio_exact(ub, uc)
+    else:
+        if method == "asymptotic":
+            big = np.ones(ub.shape, dtype=bool)
+        else:
+            big = ub >= ASYMPTOTIC_MIN_RATIO
+        thick = big & (2.0 * (uc - ub) >= _WALL_COUPLING_NEGLIGIBLE)
+        thin = big & ~thick
+        small = ~big
+        ratio = np.empty(ub.shape, dtype=complex)
+        ratio[thick] = _tube_ratio_asymptotic_thick(ub[thick])
+        if thin.any():
+            ratio[thin] = _tube_ratio_asymptotic_general(ub[thin], uc[thin])
+        if small.any():
+            ratio[small] = _tube_ratio_exact(ub[small], uc[small])
+    return (rho / (2.0 * np.pi * b * delta)) * (1.0 + 1.0j) * ratio
