@@ -1,0 +1,97 @@
+"""The ``cablefam`` command line: a thin layer over the library.
+
+Each command parses its options, calls one library function, writes the result and sets the
+exit code. Bad input prints one line and exits with code 2; ``--debug`` shows the traceback.
+"""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+from typing import Annotated, Optional
+
+import typer
+
+from optimizer.errors import InputError
+
+app = typer.Typer(add_completion=False, no_args_is_help=True, pretty_exceptions_enable=False,
+                  help="cablefam: batch optimizer for families of coaxial cables.")
+catalog_app = typer.Typer(no_args_is_help=True, help="Check and show material catalogs.")
+app.add_typer(catalog_app, name="catalog")
+
+
+@app.callback()
+def _root(debug: Annotated[bool, typer.Option("--debug", help="Show tracebacks.")] = False):
+    """cablefam: batch optimizer for families of coaxial cables."""
+
+
+def _write_atomic_text(path: Path, text: str) -> None:
+    from optimizer.atomic import write_text_atomic
+    write_text_atomic(path, text)
+
+
+@app.command()
+def inspect(
+    design: Annotated[Path, typer.Argument(help="Design file (TOML).")],
+    json_out: Annotated[bool, typer.Option("--json", help="One JSON object, SI units.")] = False,
+    profile: Annotated[Optional[Path], typer.Option(
+        "--profile", help="Write B(r), |J(r)|, E(r) across the four regions to this CSV.")] = None,
+):
+    """Evaluate one design: impedance, loss, fields, modes, heat, mass."""
+    from optimizer.inspection import format_report, inspect_design, profile_table, to_json
+
+    result = inspect_design(design)
+    if profile is not None:
+        table = profile_table(result)
+        from optimizer.atomic import atomic_path
+        with atomic_path(profile) as tmp:
+            table.to_csv(tmp, index=False, float_format="%.9g")
+    typer.echo(to_json(result) if json_out else format_report(result))
+    if profile is not None:
+        typer.echo(f"profile written to {profile}", err=True)
+
+
+@catalog_app.command("check")
+def catalog_check(files: Annotated[list[Path], typer.Argument(help="Catalog files (TOML).")]):
+    """Validate catalogs: one line per problem, exit code 2 when anything is wrong."""
+    from optimizer.catalog import catalog_problems
+
+    bad = False
+    for path in files:
+        problems, catalog = catalog_problems(path)
+        for line in problems:
+            typer.echo(line, err=True)
+        if problems:
+            bad = True
+            continue
+        counts = ", ".join(f"{len(t)} {k}" for k, t in catalog.materials.items())
+        typer.echo(f"{path}: ok, catalog {catalog.name!r}: {counts}")
+        for kind, table in catalog.materials.items():
+            for mid, m in table.items():
+                typer.echo(f"  {kind:<10s} {mid:<20s} {m.name or ''}")
+    if bad:
+        raise typer.Exit(2)
+
+
+@catalog_app.command("show")
+def catalog_show(file: Annotated[Path, typer.Argument(help="Catalog file (TOML).")]):
+    """Print a catalog as a table."""
+    from optimizer.catalog import catalog_table, load_catalog
+
+    typer.echo(catalog_table(load_catalog(file)))
+
+
+def main(argv=None) -> None:
+    """Console entry point: run the app, turn InputError into one line and exit code 2."""
+    args = list(sys.argv[1:] if argv is None else argv)
+    try:
+        app(args=args, prog_name="cablefam")  # standalone: usage errors exit 2 by themselves
+    except InputError as exc:
+        if "--debug" in args:
+            raise
+        print(f"cablefam: error: {exc}", file=sys.stderr)
+        sys.exit(2)
+
+
+if __name__ == "__main__":
+    main()

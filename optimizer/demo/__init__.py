@@ -1,0 +1,1 @@
+"""Bundled demo inputs (package data): a design file and a sweep file of a fictional scenario."""

@@ -1,0 +1,198 @@
+"""Evaluate whole populations of designs: physics in, named quantities (unit in the name) out.
+
+This is the one place where physics results get their edge names: the keys of
+``cablefam inspect --json``, the columns of ``front.parquet`` and the quantities the search
+constrains and minimises are the same strings.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from physics import fields, line, mass, modes, thermal
+from physics.skin import skin_depth
+from physics.units import neper_per_m_to_db_per_100m, per_m_to_per_km
+
+
+@dataclass(frozen=True)
+class Designs:
+    """Arrays of one common shape describing designs (geometry [m], material properties SI).
+
+    Material dictionaries use the catalog key names (``resistivity_ohm_m``...). A key that is
+    absent means the property is unknown; quantities that need it are then not computed.
+    """
+
+    inner_radius: np.ndarray
+    dielectric_radius: np.ndarray
+    shield_thickness: np.ndarray
+    jacket_thickness: np.ndarray
+    inner: dict[str, np.ndarray]
+    shield: dict[str, np.ndarray]
+    dielectric: dict[str, np.ndarray]
+    jacket: dict[str, np.ndarray] | None
+
+    @property
+    def shield_radius(self):
+        """c = b + shield thickness [m]."""
+        return self.dielectric_radius + self.shield_thickness
+
+    @property
+    def outer_radius(self):
+        """d = c + jacket thickness [m]."""
+        return self.shield_radius + self.jacket_thickness
+
+
+@dataclass(frozen=True)
+class OperatingPoint:
+    """Operating conditions, scalars or arrays broadcasting against :class:`Designs`."""
+
+    frequency_hz: float | np.ndarray
+    peak_voltage_v: float | np.ndarray | None = None
+    current_a: float | np.ndarray | None = None
+    field_safety_factor: float | np.ndarray = 1.0
+    power_w: float | np.ndarray | None = None
+    ambient_c: float | np.ndarray = 20.0
+
+
+def _has(table, *keys):
+    return table is not None and all(k in table for k in keys)
+
+
+def electromagnetic(d: Designs, op: OperatingPoint, method="auto") -> dict[str, np.ndarray]:
+    """Line parameters, impedance, attenuation, velocity, skin depths and the DC resistances.
+
+    Resistivities are taken at 20 degC; :func:`evaluate` re-evaluates the line at the
+    operating temperatures when a power is given.
+    """
+    a, b, c = d.inner_radius, d.dielectric_radius, d.shield_radius
+    f = op.frequency_hz
+    lp = line.line_parameters(a, b, c, f, d.inner["resistivity_ohm_m"],
+                              d.shield["resistivity_ohm_m"],
+                              d.dielectric["relative_permittivity"], d.dielectric["loss_tangent"],
+                              d.inner.get("relative_permeability", 1.0),
+                              d.shield.get("relative_permeability", 1.0), method=method)
+    return _line_quantities(d, op, lp)
+
+
+def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
+    a, b, c = d.inner_radius, d.dielectric_radius, d.shield_radius
+    f = op.frequency_hz
+    gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
+    z0 = gamma / (lp.g + 2j * np.pi * f * lp.c)
+    z0_lossless = line.characteristic_impedance_lossless(a, b, d.dielectric["relative_permittivity"])
+    alpha_c, alpha_d = line.attenuation_split(gamma.real, lp.r, lp.g, z0_lossless)
+    out = {
+        "z0_ohm": np.abs(z0),
+        "z0_real_ohm": z0.real,
+        "z0_imag_ohm": z0.imag,
+        "z0_lossless_ohm": z0_lossless,
+        "r_ohm_per_m": lp.r,
+        "l_h_per_m": lp.l,
+        "g_s_per_m": lp.g,
+        "c_f_per_m": lp.c,
+        "attenuation_db_per_100m": neper_per_m_to_db_per_100m(gamma.real),
+        "conductor_attenuation_db_per_100m": neper_per_m_to_db_per_100m(alpha_c),
+        "dielectric_attenuation_db_per_100m": neper_per_m_to_db_per_100m(alpha_d),
+        "velocity_factor": line.velocity_factor(gamma.imag, f),
+        "delay_s_per_m": line.delay_per_metre(gamma.imag, f),
+        "skin_depth_inner_m": skin_depth(d.inner["resistivity_ohm_m"], f,
+                                         d.inner.get("relative_permeability", 1.0)),
+        "skin_depth_shield_m": skin_depth(d.shield["resistivity_ohm_m"], f,
+                                          d.shield.get("relative_permeability", 1.0)),
+        "dc_resistance_inner_ohm_per_m": d.inner["resistivity_ohm_m"] / (np.pi * a * a),
+        "dc_resistance_shield_ohm_per_m": d.shield["resistivity_ohm_m"] / (np.pi * (c * c - b * b)),
+    }
+    return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+
+
+def evaluate(d: Designs, op: OperatingPoint, method="auto") -> dict[str, np.ndarray]:
+    """Every quantity of a population of designs at one operating point.
+
+    Returns a dict of float arrays (shape of the designs), keyed by the names of
+    ``cablefam inspect --json``. Keys whose inputs are missing (no jacket table, no power, no
+    peak voltage, no thermal properties) are left out, never filled with NaN. When
+    ``power_w`` is given, the line quantities are those at the operating temperatures.
+    """
+    a, b = d.inner_radius, d.dielectric_radius
+    c, rd = d.shield_radius, d.outer_radius
+    diel = d.dielectric
+    out = electromagnetic(d, op, method)
+    out["outer_diameter_m"] = mass.outer_diameter(rd) + 0.0 * a
+    out["te11_cutoff_hz"] = modes.te11_cutoff_frequency(a, b, diel["relative_permittivity"])
+    out["te11_cutoff_approx_hz"] = modes.te11_cutoff_frequency_approx(
+        a, b, diel["relative_permittivity"])
+    if op.peak_voltage_v is not None:
+        out["peak_e_field_v_per_m"] = fields.peak_electric_field(a, b, op.peak_voltage_v)
+    if "dielectric_strength_v_per_m" in diel:
+        out["max_peak_voltage_v"] = fields.max_peak_voltage(
+            a, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor)
+    out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(mass.dc_loop_resistance(
+        a, b, c, d.inner["resistivity_ohm_m"], d.shield["resistivity_ohm_m"]))
+
+    no_jacket = bool(np.all(d.jacket_thickness == 0.0))
+    jacket = d.jacket if d.jacket is not None else ({} if no_jacket else None)
+    densities = ("density_kg_per_m3",)
+    if _has(d.inner, *densities) and _has(d.shield, *densities) and _has(diel, *densities) and (
+            no_jacket or _has(jacket, *densities)):
+        masses = mass.layer_masses(a, b, c, rd, d.inner["density_kg_per_m3"],
+                                   diel["density_kg_per_m3"], d.shield["density_kg_per_m3"],
+                                   jacket.get("density_kg_per_m3", 0.0))
+        out["mass_kg_per_km"] = per_m_to_per_km(masses.total)
+        prices = ("price_per_kg",)
+        if _has(d.inner, *prices) and _has(d.shield, *prices) and _has(diel, *prices) and (
+                no_jacket or _has(jacket, *prices)):
+            out["cost_per_km"] = per_m_to_per_km(mass.material_cost(
+                masses, d.inner["price_per_kg"], diel["price_per_kg"], d.shield["price_per_kg"],
+                jacket.get("price_per_kg", 0.0)))
+
+    thermal_ok = (_has(d.inner, "temperature_coefficient_per_k")
+                  and _has(d.shield, "temperature_coefficient_per_k")
+                  and _has(diel, "thermal_resistivity_k_m_per_w")
+                  and (no_jacket or _has(jacket, "thermal_resistivity_k_m_per_w")))
+    if not thermal_ok:
+        return out
+    common = dict(
+        a=a, b=b, c=c, d=rd, frequency=op.frequency_hz, ambient_c=op.ambient_c,
+        inner_resistivity_20c=d.inner["resistivity_ohm_m"],
+        inner_temperature_coefficient=d.inner["temperature_coefficient_per_k"],
+        shield_resistivity_20c=d.shield["resistivity_ohm_m"],
+        shield_temperature_coefficient=d.shield["temperature_coefficient_per_k"],
+        relative_permittivity=diel["relative_permittivity"], loss_tangent=diel["loss_tangent"],
+        dielectric_thermal_resistivity=diel["thermal_resistivity_k_m_per_w"],
+        jacket_thermal_resistivity=jacket.get("thermal_resistivity_k_m_per_w", 1.0),
+        inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
+        shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
+    )
+    if op.power_w is not None:
+        state = thermal.coax_thermal_state(power=op.power_w, **common)
+        out.update({
+            "conductor_temperature_c": state.conductor_temperature_c,
+            "shield_temperature_c": state.shield_temperature_c,
+            "surface_temperature_c": state.surface_temperature_c,
+            "temperature_rise_k": state.temperature_rise_k,
+            "heat_w_per_m": state.heat_w_per_m,
+            "thermal_converged": state.converged.astype(float),
+        })
+        # line quantities at the operating temperatures of the two conductors
+        hot = Designs(
+            a, b, d.shield_thickness, d.jacket_thickness,
+            inner={**d.inner, "resistivity_ohm_m": thermal.resistivity_at_temperature(
+                d.inner["resistivity_ohm_m"], d.inner["temperature_coefficient_per_k"],
+                np.where(state.converged, state.conductor_temperature_c, op.ambient_c))},
+            shield={**d.shield, "resistivity_ohm_m": thermal.resistivity_at_temperature(
+                d.shield["resistivity_ohm_m"], d.shield["temperature_coefficient_per_k"],
+                np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
+            dielectric=diel, jacket=d.jacket)
+        hot_em = electromagnetic(hot, op, method)
+        for key in ("skin_depth_inner_m", "skin_depth_shield_m", "dc_resistance_inner_ohm_per_m",
+                    "dc_resistance_shield_ohm_per_m"):
+            hot_em.pop(key)  # these stay the 20 degC reference values
+        out.update(hot_em)
+    if "max_temperature_c" in diel:
+        jacket_max = jacket.get("max_temperature_c") if not no_jacket else None
+        out["max_power_w"] = thermal.max_power(
+            dielectric_max_temperature_c=diel["max_temperature_c"],
+            jacket_max_temperature_c=jacket_max, **common)
+    return out
