@@ -14,7 +14,7 @@ $(VENV)/.installed: $(BIN)/python pyproject.toml
 	touch $@
 
 demo: $(VENV)/.installed
-	$(BIN)/cablefam sweep --demo
+	$(BIN)/cablefam sweep --demo --overwrite
 
 test: $(VENV)/.installed
 	$(BIN)/python -m pytest -q

@@ -81,6 +81,54 @@ def catalog_show(file: Annotated[Path, typer.Argument(help="Catalog file (TOML).
     typer.echo(catalog_table(load_catalog(file)))
 
 
+@app.command()
+def sweep(
+    sweep_file: Annotated[Optional[Path], typer.Argument(help="Sweep file (TOML).")] = None,
+    demo: Annotated[bool, typer.Option("--demo", help="Run the bundled demo sweep.")] = False,
+    out: Annotated[Path, typer.Option("--out", help="Folder for run folders.")] = Path("runs"),
+    seed: Annotated[Optional[int], typer.Option("--seed", help="Override the run seed.")] = None,
+    generations: Annotated[Optional[int], typer.Option("--generations")] = None,
+    population: Annotated[Optional[int], typer.Option("--population")] = None,
+    evaluated: Annotated[bool, typer.Option(
+        "--evaluated", help="Also write every evaluated design to evaluated.parquet.")] = False,
+    overwrite: Annotated[bool, typer.Option(
+        "--overwrite", help="Replace an existing run folder of the same name.")] = False,
+    quiet: Annotated[bool, typer.Option("--quiet", help="No progress on stderr.")] = False,
+):
+    """Search every family member x catalog and write the Pareto sets to runs/<name>/."""
+    from optimizer.progress import StderrProgress
+    from optimizer.sweep import run_sweep
+    from optimizer.sweep_spec import demo_sweep_path, load_sweep
+
+    if demo == (sweep_file is not None):
+        raise InputError("give either a sweep file or --demo (not both, not neither)")
+    spec = load_sweep(demo_sweep_path() if demo else sweep_file)
+    run_dir = run_sweep(spec, out, seed=seed, generations=generations, population=population,
+                        record_evaluated=evaluated, overwrite=overwrite,
+                        progress=None if quiet else StderrProgress())
+    typer.echo(str(run_dir))
+    typer.echo(f"results: {run_dir / 'front.parquet'} (Pareto sets), {run_dir / 'run.json'} "
+               "(provenance and timings)", err=True)
+    typer.echo(f"next: cablefam design {run_dir} --member "
+               f"{spec.spec.member[0].name} --index 0 > design.toml && cablefam inspect "
+               "design.toml", err=True)
+
+
+@app.command()
+def design(
+    run: Annotated[Path, typer.Argument(help="Run folder.")],
+    member: Annotated[str, typer.Option("--member", help="Family member name.")],
+    index: Annotated[int, typer.Option("--index", help="Row of that member in front.parquet "
+                                       "(0-based, file order).")],
+    catalog: Annotated[Optional[str], typer.Option("--catalog", help="Only rows of this "
+                                                   "catalog.")] = None,
+):
+    """Write one front row back as a design file (TOML on stdout) that inspect accepts."""
+    from optimizer.design_export import front_row_design_toml
+
+    typer.echo(front_row_design_toml(run, member, index, catalog), nl=False)
+
+
 def main(argv=None) -> None:
     """Console entry point: run the app, turn InputError into one line and exit code 2."""
     args = list(sys.argv[1:] if argv is None else argv)

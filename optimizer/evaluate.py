@@ -107,7 +107,8 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
     return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
 
 
-def evaluate(d: Designs, op: OperatingPoint, method="auto") -> dict[str, np.ndarray]:
+def evaluate(d: Designs, op: OperatingPoint, method="auto",
+             include_max_power: bool = True) -> dict[str, np.ndarray]:
     """Every quantity of a population of designs at one operating point.
 
     Returns a dict of float arrays (shape of the designs), keyed by the names of
@@ -190,7 +191,7 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto") -> dict[str, np.ndar
                     "dc_resistance_shield_ohm_per_m"):
             hot_em.pop(key)  # these stay the 20 degC reference values
         out.update(hot_em)
-    if "max_temperature_c" in diel:
+    if include_max_power and "max_temperature_c" in diel:
         jacket_max = jacket.get("max_temperature_c") if not no_jacket else None
         out["max_power_w"] = thermal.max_power(
             dielectric_max_temperature_c=diel["max_temperature_c"],

@@ -1,0 +1,40 @@
+"""The objectives a sweep may ask for: name in the sweep file -> evaluated quantity and sense."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+
+@dataclass(frozen=True)
+class Objective:
+    name: str
+    """Name used in the sweep file."""
+    column: str
+    """Key of the evaluated quantity (a ``front.parquet`` column)."""
+    maximise: bool
+    label: str
+    """Axis label with unit."""
+
+
+OBJECTIVES = {o.name: o for o in (
+    Objective("attenuation", "attenuation_db_per_100m", False, "attenuation [dB/100 m]"),
+    Objective("mass", "mass_kg_per_km", False, "mass [kg/km]"),
+    Objective("outer_diameter", "outer_diameter_m", False, "outer diameter [m]"),
+    Objective("cost", "cost_per_km", False, "material cost [per km]"),
+    Objective("dc_loop_resistance", "dc_loop_resistance_ohm_per_km", False,
+              "DC loop resistance [ohm/km]"),
+    Objective("max_power", "max_power_w", True, "max CW power [W]"),
+    Objective("max_peak_voltage", "max_peak_voltage_v", True, "max peak voltage [V]"),
+)}
+
+
+def objective_matrix(values: dict, names) -> "np.ndarray":
+    """Stack the objectives as pymoo minimises them (maximised ones negated), shape (n, k)."""
+    import numpy as np
+
+    cols = []
+    for name in names:
+        o = OBJECTIVES[name]
+        v = np.asarray(values[o.column], dtype=float)
+        cols.append(-v if o.maximise else v)
+    return np.column_stack(cols)
