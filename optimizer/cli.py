@@ -129,6 +129,20 @@ def design(
     typer.echo(front_row_design_toml(run, member, index, catalog), nl=False)
 
 
+def _register_review_commands():
+    """Commands of the morning after (pick, compare, plot, runs), kept in their own module."""
+    try:
+        from optimizer.cli_review import register
+    except ModuleNotFoundError as exc:  # pragma: no cover - only while that module is absent
+        if exc.name != "optimizer.cli_review":
+            raise
+        return
+    register(app)
+
+
+_register_review_commands()
+
+
 def main(argv=None) -> None:
     """Console entry point: run the app, turn InputError into one line and exit code 2."""
     args = list(sys.argv[1:] if argv is None else argv)

@@ -196,7 +196,8 @@ def attenuation_split(alpha, r, g, z0_lossless):
     """
     a_c = np.asarray(r) / (2.0 * z0_lossless)
     a_d = np.asarray(g) * z0_lossless / 2.0
-    share_c = a_c / (a_c + a_d)
+    total = a_c + a_d
+    share_c = np.divide(a_c, total, out=np.zeros(np.shape(total)), where=total > 0)
     return alpha * share_c, alpha * (1.0 - share_c)
 
 

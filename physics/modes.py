@@ -45,6 +45,8 @@ def te11_cutoff_wavenumber(a, b):
     .. [2] N. Marcuvitz, *Waveguide Handbook*, MIT Rad. Lab. Series vol. 10, 1951.
     """
     a, b = np.broadcast_arrays(np.asarray(a, dtype=float), np.asarray(b, dtype=float))
+    if not np.all((a > 0) & (b > a)):
+        raise ValueError("te11_cutoff_wavenumber needs 0 < a < b for every design")
     p = b / a
     scale = 2.0 / (1.0 + p)
     res = elementwise.find_root(_te11_cross_product, (0.5 * scale, 1.1 * scale), args=(p,),
@@ -64,8 +66,10 @@ def te11_cutoff_frequency(a, b, relative_permittivity):
 def te11_cutoff_frequency_approx(a, b, relative_permittivity):
     r"""Usual estimate :math:`f_c \approx c_0 / (\pi (a+b) \sqrt{\varepsilon_r})` [Hz].
 
-    From :math:`k_c \approx 2/(a+b)` (Sec. 3.5 of [1]_); 1-3 % high for usual
-    :math:`b/a` against :func:`te11_cutoff_frequency`.
+    From :math:`k_c \approx 2/(a+b)` (Sec. 3.5 of [1]_); 0.6-2.8 % *below*
+    :func:`te11_cutoff_frequency` for usual :math:`1.5 \le b/a \le 5` (so on the safe side
+    there), equal to it near :math:`b/a \approx 8.5` and above it for thinner centre
+    conductors (up to 8.6 % as :math:`b/a \to \infty`).
 
     References
     ----------

@@ -471,6 +471,9 @@ def _solve_flat(p, power, tolerance_k, max_iterations, runaway_temperature_c):
         rise_s = (w / surface_conductance[i]) ** 0.8
         new_s = amb[i] + w * t3[i] + rise_s
         new_c = new_s + (wi + 0.5 * wd) * t1[i]
+        if np.isnan(new_c).any():  # checked inputs cannot give NaN: a fault upstream
+            k = int(i[np.flatnonzero(np.isnan(new_c))[0]])
+            raise FloatingPointError(f"NaN heat from physics.line for design element {k}")
         done = (np.abs(new_c - theta_c[i]) <= tolerance_k) & (
             np.abs(new_s - theta_s[i]) <= tolerance_k)
         runaway = ~(new_c <= runaway_temperature_c)
@@ -656,8 +659,9 @@ def max_power(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
     linearly to the allowed rise; :func:`scipy.optimize.elementwise.bracket_root` widens it
     into a bracket and :func:`scipy.optimize.elementwise.find_root` (Chandrupatla's method [2]_)
     refines :math:`x = \ln P` until the bracket is narrower than 1e-7 (relative 1e-7 in power)
-    or :math:`|F| \le 10` ``tolerance_k``. A run-away state counts as far above the limit. Should the root finder fail for a design, the largest power found to
-    stay within the limits is returned (0 if none): the result errs on the safe side.
+    or :math:`|F| \le 10` ``tolerance_k``. A run-away state counts as far above the limit.
+    Should the root finder fail for a design, the largest power found to stay within the
+    limits is returned (0 if none): the result errs on the safe side.
 
     References
     ----------
