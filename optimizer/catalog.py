@@ -4,6 +4,7 @@
 from __future__ import annotations
 
 import hashlib
+import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -50,6 +51,23 @@ def catalog_problems(path) -> tuple[list[str], Catalog | None]:
         raw = read_toml(path)
     except InputError as exc:
         return [str(exc)], None
+    return _problems_of_raw(raw, path, file_sha256(path))
+
+
+def catalog_from_text(text: str, path) -> Catalog:
+    """A catalog from its TOML text (as shipped to remote workers); ``path`` labels messages."""
+    try:
+        raw = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise InputError(f"{path}: not valid TOML ({exc})") from None
+    problems, catalog = _problems_of_raw(raw, Path(path),
+                                         hashlib.sha256(text.encode("utf-8")).hexdigest())
+    if problems:
+        raise InputError(problems[0])
+    return catalog
+
+
+def _problems_of_raw(raw: dict, path: Path, sha256: str) -> tuple[list[str], Catalog | None]:
     problems: list[str] = []
     header = raw.get("catalog")
     if not isinstance(header, dict):
@@ -86,7 +104,7 @@ def catalog_problems(path) -> tuple[list[str], Catalog | None]:
     if problems:
         return problems, None
     return [], Catalog(name=header["name"], description=header.get("description", ""),
-                       path=path, sha256=file_sha256(path), materials=materials)
+                       path=path, sha256=sha256, materials=materials)
 
 
 def load_catalog(path) -> Catalog:

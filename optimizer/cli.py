@@ -93,6 +93,18 @@ def sweep(
         "--evaluated", help="Also write every evaluated design to evaluated.parquet.")] = False,
     overwrite: Annotated[bool, typer.Option(
         "--overwrite", help="Replace an existing run folder of the same name.")] = False,
+    resume: Annotated[bool, typer.Option(
+        "--resume", help="Continue the run folder of this sweep: finished tasks are kept, "
+        "unfinished ones restart from their last checkpoint.")] = False,
+    force: Annotated[bool, typer.Option(
+        "--force", help="Resume even if the sweep file or a catalog changed.")] = False,
+    workers: Annotated[str, typer.Option(
+        "--workers", help="Local worker processes: a number or 'auto' (= cores).")] = "1",
+    scheduler: Annotated[Optional[str], typer.Option(
+        "--scheduler", help="Run tasks on a Dask cluster, e.g. tcp://host:8786.")] = None,
+    checkpoint_every: Annotated[Optional[int], typer.Option(
+        "--checkpoint-every", help="Checkpoint every N generations (default: every ~30 s "
+        "of work).")] = None,
     quiet: Annotated[bool, typer.Option("--quiet", help="No progress on stderr.")] = False,
 ):
     """Search every family member x catalog and write the Pareto sets to runs/<name>/."""
@@ -103,15 +115,67 @@ def sweep(
     if demo == (sweep_file is not None):
         raise InputError("give either a sweep file or --demo (not both, not neither)")
     spec = load_sweep(demo_sweep_path() if demo else sweep_file)
-    run_dir = run_sweep(spec, out, seed=seed, generations=generations, population=population,
-                        record_evaluated=evaluated, overwrite=overwrite,
-                        progress=None if quiet else StderrProgress())
+    if overwrite and resume:
+        raise InputError("--overwrite and --resume exclude each other")
+    run_dir = _interruptible(lambda: run_sweep(
+        spec, out, seed=seed, generations=generations, population=population,
+        record_evaluated=evaluated, overwrite=overwrite, resume=resume, force=force,
+        workers=_workers(workers), scheduler=scheduler, checkpoint_every=checkpoint_every,
+        progress=None if quiet else StderrProgress()))
+    _report_run(run_dir, spec.spec.member[0].name)
+
+
+def _workers(text: str) -> int:
+    import os
+    if text == "auto":
+        return os.cpu_count() or 1
+    try:
+        n = int(text)
+    except ValueError:
+        n = 0
+    if n < 1:
+        raise InputError(f"--workers = {text!r}: give a number >= 1 or 'auto'")
+    return n
+
+
+def _interruptible(call):
+    """Run a sweep; an interruption prints how to continue and exits with 130."""
+    from optimizer.sweep import SweepInterrupted
+    try:
+        return call()
+    except SweepInterrupted as exc:
+        print(f"cablefam: {exc}", file=sys.stderr)
+        raise typer.Exit(130) from None
+
+
+def _report_run(run_dir, first_member):
     typer.echo(str(run_dir))
     typer.echo(f"results: {run_dir / 'front.parquet'} (Pareto sets), {run_dir / 'run.json'} "
                "(provenance and timings)", err=True)
-    typer.echo(f"next: cablefam design {run_dir} --member "
-               f"{spec.spec.member[0].name} --index 0 > design.toml && cablefam inspect "
-               "design.toml", err=True)
+    typer.echo(f"next: cablefam design {run_dir} --member {first_member} --index 0 > "
+               "design.toml && cablefam inspect design.toml", err=True)
+
+
+@app.command()
+def resume(
+    run: Annotated[Path, typer.Argument(help="Run folder of a killed or interrupted sweep.")],
+    force: Annotated[bool, typer.Option(
+        "--force", help="Resume even if the sweep file or a catalog changed.")] = False,
+    workers: Annotated[str, typer.Option("--workers", help="Local worker processes.")] = "1",
+    scheduler: Annotated[Optional[str], typer.Option("--scheduler")] = None,
+    checkpoint_every: Annotated[Optional[int], typer.Option("--checkpoint-every")] = None,
+    quiet: Annotated[bool, typer.Option("--quiet", help="No progress on stderr.")] = False,
+):
+    """Continue a run: finished tasks kept, unfinished ones from their last checkpoint."""
+    from optimizer.progress import StderrProgress
+    from optimizer.sweep import resume_run
+
+    run_dir = _interruptible(lambda: resume_run(
+        run, force=force, workers=_workers(workers), scheduler=scheduler,
+        checkpoint_every=checkpoint_every, progress=None if quiet else StderrProgress()))
+    from optimizer.run_folder import read_front
+    df, _ = read_front(run_dir)
+    _report_run(run_dir, str(df["member"].iloc[0]) if len(df) else "MEMBER")
 
 
 @app.command()

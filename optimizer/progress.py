@@ -31,9 +31,19 @@ class StderrProgress:
     def _print(self, text):
         print(text, file=self.stream, flush=True)
 
-    def start(self, n_tasks: int):
+    def start(self, n_tasks: int, already_done: int = 0):
         self.n_tasks = n_tasks
+        self.done = already_done
         self.t_start = time.perf_counter()
+        if already_done:
+            self._print(f"{already_done}/{n_tasks} tasks already finished in this run folder; "
+                        "continuing the rest")
+
+    def tasks(self, running: int, queued: int):
+        """A summary line across workers."""
+        elapsed = time.perf_counter() - self.t_start
+        self._print(f"tasks: {self.done}/{self.n_tasks} done, {running} running, {queued} "
+                    f"queued, elapsed {_clock(elapsed)}")
 
     def generation(self, member, catalog, gen, generations, problem, task_seconds):
         now = time.perf_counter()

@@ -107,23 +107,58 @@ class _RecordingProblem(MemberProblem):
         self.archive.update(np.asarray(x, dtype=float), out["F"], out["G"])
 
 
+class TaskInterrupted(Exception):
+    """A task stopped on request (SIGINT/SIGTERM) after writing its checkpoint."""
+
+
 def run_task(sweep: Sweep, member: MemberSpec, catalog_name: str, seed: int, generations: int,
-             population: int, record_evaluated: bool = False, progress=None) -> TaskResult:
-    """Run one member x catalog search and return its feasible non-dominated archive."""
+             population: int, record_evaluated: bool = False, progress=None, store=None,
+             checkpoint_every: int | None = None, checkpoint_seconds: float = 30.0,
+             stop=None) -> TaskResult:
+    """Run one member x catalog search and return its feasible non-dominated archive.
+
+    With a :class:`optimizer.checkpoint.TaskStore`, the task starts from its last checkpoint
+    if there is one, and writes a checkpoint every ``checkpoint_every`` generations (or, when
+    that is None, after every ``checkpoint_seconds`` of work). When ``stop`` (an object with
+    ``is_set()``) becomes set, the task writes a checkpoint and raises :class:`TaskInterrupted`.
+    """
+    from optimizer.checkpoint import capture, restore
+
     t_start = time.perf_counter()
     problem = _RecordingProblem(sweep, member, catalog_name, record_evaluated=record_evaluated)
     algorithm = make_algorithm(problem, population, seed)
     algorithm.setup(problem, termination=("n_gen", generations), seed=seed, verbose=False)
     gen = 0
+    seconds_before = 0.0
+    if store is not None:
+        state = store.read_checkpoint()
+        if state is not None:
+            restore(algorithm, problem, state)
+            gen = state.generation
+            seconds_before = state.counters.get("seconds", 0.0)
+    last_checkpoint = time.perf_counter()
     while algorithm.has_next():
         algorithm.next()
         gen += 1
+        now = time.perf_counter()
         if progress is not None:
             progress.generation(member.name, catalog_name, gen, generations, problem,
-                                time.perf_counter() - t_start)
+                                seconds_before + now - t_start)
+        if store is None:
+            continue
+        stopping = stop is not None and stop.is_set()
+        due = (gen % checkpoint_every == 0) if checkpoint_every else (
+            now - last_checkpoint >= checkpoint_seconds)
+        if (due or stopping) and algorithm.has_next():
+            state = capture(algorithm, problem, gen)
+            state.counters["seconds"] = seconds_before + now - t_start
+            store.write_checkpoint(state)
+            last_checkpoint = time.perf_counter()
+        if stopping and algorithm.has_next():
+            raise TaskInterrupted(f"{member.name} x {catalog_name} at generation {gen}")
     evaluated = np.vstack(problem.evaluated) if record_evaluated and problem.evaluated else None
     return TaskResult(member=member.name, catalog=catalog_name, seed=seed,
                       x_front=problem.archive.x, evaluations=problem.n_evaluations,
-                      generations=gen, seconds=time.perf_counter() - t_start,
+                      generations=gen, seconds=seconds_before + time.perf_counter() - t_start,
                       physics_seconds=problem.physics_seconds,
                       feasible_evaluated=problem.n_feasible, evaluated=evaluated)

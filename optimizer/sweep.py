@@ -29,7 +29,8 @@ from optimizer.constraints import CONSTRAINTS
 from optimizer.errors import InputError
 from optimizer.objectives import OBJECTIVES, objective_matrix
 from optimizer.problem import MATERIAL_TABLES, MemberProblem
-from optimizer.search import TaskResult, run_task, task_seed
+from optimizer.checkpoint import TaskStore
+from optimizer.search import TaskResult
 from optimizer.sweep_spec import GEOMETRY_KEYS, Sweep
 
 FRONT_FILE = "front.parquet"
@@ -155,22 +156,80 @@ def _sha256_text(text: str) -> str:
     return hashlib.sha256(text.encode("utf-8")).hexdigest()
 
 
-def prepare_run_folder(sweep: Sweep, out_dir: Path, overwrite: bool) -> Path:
+STATE_FILE = "run-state.json"
+
+
+class SweepInterrupted(Exception):
+    """The sweep stopped on SIGINT/SIGTERM; checkpoints are on disk."""
+
+    def __init__(self, run_dir: Path, signal_name: str | None):
+        super().__init__(f"{run_dir}: interrupted ({signal_name or 'stop requested'}); "
+                         f"checkpoints written. Continue with: cablefam resume {run_dir}")
+        self.run_dir = run_dir
+
+
+def _run_state(sweep: Sweep, settings: SweepSettings) -> dict:
+    return {"format": "cablefam-run-state/1",
+            "sweep_path": str(sweep.path.resolve()),
+            "sweep_sha256": _sha256_text(sweep.text),
+            "catalogs": [{"name": c.name, "path": str(c.path.resolve()), "sha256": c.sha256}
+                         for c in sweep.catalogs],
+            "settings": {"seed": settings.seed, "generations": settings.generations,
+                         "population": settings.population,
+                         "record_evaluated": settings.record_evaluated}}
+
+
+def read_run_state(run_dir) -> dict:
+    path = Path(run_dir) / STATE_FILE
+    try:
+        return json.loads(path.read_text(encoding="utf-8"))
+    except FileNotFoundError:
+        raise InputError(f"{run_dir}: nothing to resume (no {STATE_FILE})") from None
+    except (json.JSONDecodeError, UnicodeDecodeError) as exc:
+        raise InputError(f"{path}: corrupt JSON ({exc})") from None
+
+
+def check_unchanged(state: dict, sweep: Sweep, force: bool) -> None:
+    """Refuse to resume when the sweep file or a catalog changed since the run started."""
+    changed = []
+    if _sha256_text(sweep.text) != state["sweep_sha256"]:
+        changed.append(f"sweep file {sweep.path}")
+    recorded = {c["name"]: c["sha256"] for c in state["catalogs"]}
+    for c in sweep.catalogs:
+        if recorded.get(c.name) != c.sha256:
+            changed.append(f"catalog {c.name!r} ({c.path})")
+    if set(recorded) != {c.name for c in sweep.catalogs}:
+        changed.append("the list of catalogs")
+    if changed and not force:
+        raise InputError("cannot resume: " + ", ".join(changed) + " changed since the run "
+                         "started (SHA-256 differs); pass --force to resume anyway")
+
+
+def prepare_run_folder(sweep: Sweep, out_dir: Path, overwrite: bool, settings: SweepSettings,
+                       resume: bool) -> Path:
     run_dir = Path(out_dir) / sweep.spec.name
-    if (run_dir / FRONT_FILE).exists() and not overwrite:
-        raise InputError(f"run folder {run_dir} already holds a run; pass --overwrite to "
-                         "replace it, or change `name` in the sweep file")
+    started = (run_dir / STATE_FILE).exists() or (run_dir / FRONT_FILE).exists()
+    if started and not (overwrite or resume):
+        raise InputError(f"run folder {run_dir} already holds a run; pass --resume to continue "
+                         "it, --overwrite to replace it, or change `name` in the sweep file")
+    if overwrite and not resume:
+        import shutil
+        for sub in ("tasks", "inputs"):
+            shutil.rmtree(run_dir / sub, ignore_errors=True)
+        for f in (FRONT_FILE, EVALUATED_FILE, RUN_FILE, STATE_FILE):
+            (run_dir / f).unlink(missing_ok=True)
     (run_dir / "inputs").mkdir(parents=True, exist_ok=True)
     write_text_atomic(run_dir / "inputs" / "sweep.toml", sweep.text)
     for c in sweep.catalogs:
         write_text_atomic(run_dir / "inputs" / f"catalog-{c.name}.toml",
-                          c.path.read_text(encoding="utf-8"))
+                          c.path.read_bytes().decode("utf-8"))
+    if not (resume and (run_dir / STATE_FILE).exists()):
+        write_text_atomic(run_dir / STATE_FILE,
+                          json.dumps(_run_state(sweep, settings), indent=2) + "\n")
     return run_dir
 
 
-def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, population=None,
-              record_evaluated=False, overwrite=False, progress=None) -> Path:
-    """Run every member x catalog task of ``sweep`` and write the run folder; return its path."""
+def _settings(sweep: Sweep, seed, generations, population, record_evaluated) -> SweepSettings:
     spec = sweep.spec
     settings = SweepSettings(
         seed=spec.seed if seed is None else int(seed),
@@ -180,35 +239,92 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
     if settings.generations < 1 or settings.population < 4:
         raise InputError(f"--generations = {settings.generations}, --population = "
                          f"{settings.population}: need generations >= 1 and population >= 4")
-    run_dir = prepare_run_folder(sweep, out_dir, overwrite)
+    return settings
+
+
+def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, population=None,
+              record_evaluated=False, overwrite=False, progress=None, resume=False,
+              force=False, workers=1, scheduler=None, checkpoint_every=None,
+              checkpoint_seconds=30.0) -> Path:
+    """Run every member x catalog task of ``sweep`` and write the run folder; return its path.
+
+    Finished tasks are stored at once under ``tasks/``; with ``resume`` they are not
+    recomputed and unfinished ones continue from their last checkpoint. ``workers`` > 1 runs
+    tasks in local processes; ``scheduler`` (``tcp://host:port``) on a Dask cluster. The
+    front does not depend on either.
+    """
+    from optimizer.execution import (StopFlag, make_task_specs, run_dask, run_local_processes,
+                                     run_serial)
+    from optimizer.search import TaskInterrupted
+    from optimizer.sweep_spec import sweep_payload
+
+    settings = _settings(sweep, seed, generations, population, record_evaluated)
+    run_dir = Path(out_dir) / sweep.spec.name
+    if resume and (run_dir / STATE_FILE).exists():
+        state = read_run_state(run_dir)
+        check_unchanged(state, sweep, force)
+        recorded = SweepSettings(**state["settings"])
+        asked = (seed, generations, population)
+        if any(v is not None for v in asked) and recorded != settings:
+            raise InputError(f"--seed/--generations/--population differ from the run being "
+                             f"resumed ({state['settings']}); leave them out to resume")
+        settings = recorded
+    run_dir = prepare_run_folder(sweep, out_dir, overwrite, settings, resume)
     started = datetime.now(timezone.utc)
     t0 = time.perf_counter()
-    tasks = [(m, c.name) for m in spec.member for c in sweep.catalogs]
+    specs = make_task_specs(sweep, settings, run_dir, checkpoint_every, checkpoint_seconds)
+    results: dict[tuple[str, str], TaskResult] = {}
+    for spec in specs:
+        stored = TaskStore(run_dir, spec.member, spec.catalog).read_result()
+        if stored is not None:
+            results[(spec.member, spec.catalog)] = stored
+    todo = [s for s in specs if (s.member, s.catalog) not in results]
     if progress is not None:
-        progress.start(len(tasks))
-    fronts, evaluated, results = [], [], []
-    for member, catalog_name in tasks:
-        s = task_seed(settings.seed, member.name, catalog_name)
-        result: TaskResult = run_task(sweep, member, catalog_name, s, settings.generations,
-                                      settings.population, record_evaluated, progress)
-        problem = MemberProblem(sweep, member, catalog_name)
-        fronts.append(front_frame(problem, result.x_front))
-        if result.evaluated is not None:
-            evaluated.append(evaluated_frame(problem, result.evaluated))
-        results.append(result)
+        progress.start(len(specs), already_done=len(specs) - len(todo))
+
+    def on_result(result):
+        results[(result.member, result.catalog)] = result
         if progress is not None:
-            progress.task_done(result, len(fronts[-1]))
+            progress.task_done(result, len(result.x_front))
+
+    payload = json.dumps(sweep_payload(sweep), sort_keys=True)
+    stop = StopFlag().install()
+    try:
+        if scheduler:
+            run_dask(payload, todo, on_result, progress, stop, scheduler)
+        elif workers > 1 and len(todo) > 1:
+            run_local_processes(payload, todo, on_result, progress, stop, workers)
+        else:
+            run_serial(payload, todo, on_result, progress, stop)
+    except TaskInterrupted:
+        raise SweepInterrupted(run_dir, stop.signal_name) from None
+    finally:
+        stop.uninstall()
+    ordered = [results[(s.member, s.catalog)] for s in specs]
+    write_outputs(sweep, settings, run_dir, ordered, started, time.perf_counter() - t0,
+                  resumed=len(specs) - len(todo), forced=force)
+    return run_dir
+
+
+def write_outputs(sweep, settings, run_dir, results, started, wall, resumed=0, forced=False):
+    """Assemble the front from the task results (in task order) and write the run files."""
+    fronts, evaluated = [], []
+    members = {m.name: m for m in sweep.spec.member}
+    for r in results:
+        problem = MemberProblem(sweep, members[r.member], r.catalog)
+        fronts.append(front_frame(problem, r.x_front))
+        if r.evaluated is not None:
+            evaluated.append(evaluated_frame(problem, r.evaluated))
     front = pd.concat(fronts, ignore_index=True)
-    counts = {"tasks": len(tasks), "evaluations": int(sum(r.evaluations for r in results)),
+    counts = {"tasks": len(results), "evaluations": int(sum(r.evaluations for r in results)),
               "front_rows": int(len(front)),
               "front_rows_per_task": {f"{r.member}/{r.catalog}": int(len(df))
                                       for r, df in zip(results, fronts)}}
     provenance = _provenance(sweep, settings, counts)
     write_parquet(front, run_dir / FRONT_FILE, provenance)
-    if record_evaluated:
+    if settings.record_evaluated:
         write_parquet(pd.concat(evaluated, ignore_index=True), run_dir / EVALUATED_FILE,
                       provenance)
-    wall = time.perf_counter() - t0
     run_info = {
         **{k: v for k, v in provenance.items() if k != "sweep_text"},
         "sweep_path": str(sweep.path.resolve()),
@@ -216,6 +332,8 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
         "started_utc": started.isoformat(timespec="seconds"),
         "finished_utc": datetime.now(timezone.utc).isoformat(timespec="seconds"),
         "wall_seconds": round(wall, 3),
+        "tasks_taken_from_earlier_session": resumed,
+        "resumed_with_force": forced,
         "command": " ".join(["cablefam"] + sys.argv[1:]),
         "tasks": [{"member": r.member, "catalog": r.catalog, "seed": r.seed,
                    "generations": r.generations, "evaluations": r.evaluations,
@@ -223,8 +341,29 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
                    "seconds": round(r.seconds, 3),
                    "physics_seconds": round(r.physics_seconds, 3)}
                   for r, df in zip(results, fronts)],
-        "files": [FRONT_FILE] + ([EVALUATED_FILE] if record_evaluated else []),
+        "files": [FRONT_FILE] + ([EVALUATED_FILE] if settings.record_evaluated else []),
         "cautions": " ".join(CAUTION_LINES),
     }
     write_text_atomic(run_dir / RUN_FILE, json.dumps(run_info, indent=2) + "\n")
-    return run_dir
+
+
+def resume_run(run_dir, *, force=False, progress=None, workers=1, scheduler=None,
+               checkpoint_every=None, checkpoint_seconds=30.0) -> Path:
+    """Continue a killed or interrupted run from its folder (``cablefam resume RUN``)."""
+    from optimizer.sweep_spec import load_sweep
+
+    run_dir = Path(run_dir)
+    state = read_run_state(run_dir)
+    sweep_path = Path(state["sweep_path"])
+    if not sweep_path.is_file():
+        raise InputError(f"{run_dir}: the run's sweep file {sweep_path} is gone; resume with "
+                         "`cablefam sweep SWEEP.toml --resume` from its new place")
+    sweep = load_sweep(sweep_path)
+    if Path(run_dir).resolve().name != sweep.spec.name:
+        raise InputError(f"{run_dir}: folder name differs from the sweep's name "
+                         f"{sweep.spec.name!r}")
+    st = state["settings"]
+    return run_sweep(sweep, run_dir.parent, seed=None, generations=None, population=None,
+                     record_evaluated=st["record_evaluated"], progress=progress, resume=True,
+                     force=force, workers=workers, scheduler=scheduler,
+                     checkpoint_every=checkpoint_every, checkpoint_seconds=checkpoint_seconds)

@@ -8,6 +8,7 @@ key and the value.
 from __future__ import annotations
 
 import re
+import tomllib
 from dataclasses import dataclass
 from importlib import resources
 from pathlib import Path
@@ -15,7 +16,7 @@ from typing import Annotated
 
 from pydantic import Field, ValidationError, field_validator
 
-from optimizer.catalog import Catalog, load_catalog
+from optimizer.catalog import Catalog, catalog_from_text, load_catalog
 from optimizer.errors import InputError
 from optimizer.materials import Positive, Record, Temperature, read_toml, validation_problems
 from optimizer.objectives import OBJECTIVES
@@ -128,8 +129,13 @@ class Sweep:
         return self.spec.search.jacket_thickness_m[1] > 0.0
 
 
-def parse_sweep(raw: dict, where: str, base_dir: Path, text: str = "") -> Sweep:
-    """Validate a parsed sweep table; catalogs are resolved relative to ``base_dir``."""
+def parse_sweep(raw: dict, where: str, base_dir: Path, text: str = "",
+                catalog_texts: dict[str, str] | None = None) -> Sweep:
+    """Validate a parsed sweep table; catalogs are resolved relative to ``base_dir``.
+
+    With ``catalog_texts`` (catalog entry of the sweep file -> TOML text) no file is read:
+    that is how a task travels to a worker on another machine.
+    """
     try:
         spec = SweepFile.model_validate(raw)
     except ValidationError as exc:
@@ -139,7 +145,11 @@ def parse_sweep(raw: dict, where: str, base_dir: Path, text: str = "") -> Sweep:
     dup = sorted({n for n in names if names.count(n) > 1})
     if dup:
         raise InputError(f"{where}: member.name = {dup[0]!r}: names must be unique")
-    catalogs = tuple(load_catalog(base_dir / c) for c in spec.catalogs)
+    if catalog_texts is None:
+        catalogs = tuple(load_catalog(base_dir / c) for c in spec.catalogs)
+    else:
+        catalogs = tuple(catalog_from_text(catalog_texts[c], base_dir / c)
+                         for c in spec.catalogs)
     cat_names = [c.name for c in catalogs]
     if len(set(cat_names)) != len(cat_names):
         raise InputError(f"{where}: catalogs = {spec.catalogs!r}: two catalogs share the "
@@ -170,7 +180,22 @@ def load_sweep(path) -> Sweep:
     """Read and validate a sweep file."""
     path = Path(path)
     raw = read_toml(path)
-    return parse_sweep(raw, str(path), path.parent, path.read_text(encoding="utf-8"))
+    return parse_sweep(raw, str(path), path.parent, path.read_bytes().decode("utf-8"))
+
+
+def sweep_payload(sweep: Sweep) -> dict:
+    """Everything a worker needs to rebuild ``sweep`` without the files: plain strings."""
+    return {"where": str(sweep.path), "sweep_text": sweep.text,
+            "catalog_texts": {entry: c.path.read_bytes().decode("utf-8")
+                              for entry, c in zip(sweep.spec.catalogs, sweep.catalogs)}}
+
+
+def sweep_from_payload(payload: dict) -> Sweep:
+    """Rebuild a sweep from :func:`sweep_payload` (catalog paths become labels only)."""
+    raw = tomllib.loads(payload["sweep_text"])
+    where = payload["where"]
+    return parse_sweep(raw, where, Path(where).parent, payload["sweep_text"],
+                       payload["catalog_texts"])
 
 
 def demo_sweep_path() -> Path:

@@ -102,8 +102,8 @@ def weighted_scores(f, weights) -> np.ndarray:
 
     .. math:: s = \sum_i w_i \frac{f_i - z_i^*}{z_i^{nad} - z_i^*}, \qquad \sum_i w_i = 1
 
-    (the weighted-sum scalarization, Sec. 3.1 of Miettinen [1]_, applied to range-normalized
-    objectives). ``weights`` (>= 0, not all zero) are rescaled to sum to 1.
+    (the weighting method of Miettinen [1]_, applied to range-normalized objectives).
+    ``weights`` (>= 0, not all zero) are rescaled to sum to 1.
 
     References
     ----------
@@ -141,9 +141,9 @@ def pseudo_weights(f) -> np.ndarray:
     .. math:: w_i = \frac{(z_i^{nad} - f_i)/(z_i^{nad} - z_i^*)}
                          {\sum_j (z_j^{nad} - f_j)/(z_j^{nad} - z_j^*)}
 
-    (Sec. 8.7 of Deb [1]_; the formula of ``pymoo.mcdm.pseudo_weights.PseudoWeights``). An
-    objective of zero range contributes 0; a point at the nadir in every objective gets equal
-    weights.
+    (Deb [1]_, choosing a solution by pseudo-weights; the formula of
+    ``pymoo.mcdm.pseudo_weights.PseudoWeights``). An objective of zero range contributes 0; a
+    point at the nadir in every objective gets equal weights.
 
     References
     ----------
@@ -160,13 +160,13 @@ def pseudo_weights(f) -> np.ndarray:
 
 def coverage(a, b) -> float | None:
     r"""Set coverage :math:`C(A, B)`: the share of points of ``b`` weakly dominated by a point
-    of ``a``.
+    of ``a`` (the C metric of Zitzler and Thiele [1]_).
 
     .. math:: C(A, B) = \frac{|\{b \in B : \exists a \in A,\ a \preceq b\}|}{|B|}
 
-    with :math:`a \preceq b` when ``a`` is no worse than ``b`` in every objective (Eq. 3 of
-    Zitzler and Thiele [1]_). Not symmetric: compute both :math:`C(A,B)` and :math:`C(B,A)`.
-    ``None`` when ``b`` is empty; 0 when ``a`` is empty and ``b`` is not.
+    with :math:`a \preceq b` when ``a`` is no worse than ``b`` in every objective. Not
+    symmetric: compute both :math:`C(A,B)` and :math:`C(B,A)`. ``None`` when ``b`` is empty;
+    0 when ``a`` is empty and ``b`` is not.
 
     References
     ----------
