@@ -4,7 +4,8 @@ Keys (a contract: add freely, rename none)::
 
     name = "..."                      # optional
     catalog = "catalogs/baseline.toml"   # optional, relative to this file
-    [geometry]   inner_radius_m, dielectric_radius_m, shield_thickness_m, jacket_thickness_m
+    [geometry]   inner_radius_m, dielectric_radius_m, shield_thickness_m, jacket_thickness_m,
+                 eccentricity_m (offset of the centre conductor, default 0)
     [conductor]  id = "copper"  or  resistivity_ohm_m, temperature_coefficient_per_k, ...
     [shield]     same keys as [conductor]
     [dielectric] id or relative_permittivity, loss_tangent, dielectric_strength_v_per_m, ...
@@ -48,6 +49,7 @@ class Geometry(Record):
     dielectric_radius_m: Annotated[float, Field(gt=0, lt=1.0)]
     shield_thickness_m: Annotated[float, Field(gt=0, lt=1.0)]
     jacket_thickness_m: Annotated[float, Field(ge=0, lt=1.0)] = 0.0
+    eccentricity_m: Annotated[float, Field(ge=0, lt=1.0)] = 0.0
 
 
 class Operating(Record):
@@ -81,6 +83,10 @@ def check_geometry(g: Geometry, where: str) -> None:
     if g.dielectric_radius_m <= g.inner_radius_m:
         raise InputError(f"{where}: [geometry] dielectric_radius_m = {g.dielectric_radius_m!r}: "
                          f"must be greater than inner_radius_m = {g.inner_radius_m!r}")
+    if g.eccentricity_m >= g.dielectric_radius_m - g.inner_radius_m:
+        raise InputError(f"{where}: [geometry] eccentricity_m = {g.eccentricity_m!r}: must be "
+                         "less than dielectric_radius_m - inner_radius_m = "
+                         f"{g.dielectric_radius_m - g.inner_radius_m!r} (the conductors touch)")
 
 
 def _material(raw: dict, table: str, catalog: Catalog | None, where: str):
@@ -156,7 +162,8 @@ def design_arrays(design: Design):
         shield_thickness=np.array([g.shield_thickness_m]),
         jacket_thickness=np.array([g.jacket_thickness_m]),
         inner=table(design.conductor), shield=table(design.shield),
-        dielectric=table(design.dielectric), jacket=table(design.jacket))
+        dielectric=table(design.dielectric), jacket=table(design.jacket),
+        eccentricity=np.array([g.eccentricity_m]))
     o = design.operating
     op = OperatingPoint(frequency_hz=o.frequency_hz, peak_voltage_v=o.peak_voltage_v,
                         current_a=o.current_a, field_safety_factor=o.field_safety_factor,

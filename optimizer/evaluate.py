@@ -12,6 +12,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from physics import fields, line, mass, modes, thermal
+from physics.eccentricity import geometry_factor, peak_field_factor
 from physics.skin import skin_depth
 from physics.units import neper_per_m_to_db_per_100m, per_m_to_per_km
 
@@ -32,6 +33,8 @@ class Designs:
     shield: dict[str, np.ndarray]
     dielectric: dict[str, np.ndarray]
     jacket: dict[str, np.ndarray] | None
+    eccentricity: np.ndarray | float = 0.0
+    """Offset of the centre conductor from the axis [m] (0: concentric)."""
 
     @property
     def shield_radius(self):
@@ -72,7 +75,8 @@ def electromagnetic(d: Designs, op: OperatingPoint, method="auto") -> dict[str, 
                               d.shield["resistivity_ohm_m"],
                               d.dielectric["relative_permittivity"], d.dielectric["loss_tangent"],
                               d.inner.get("relative_permeability", 1.0),
-                              d.shield.get("relative_permeability", 1.0), method=method)
+                              d.shield.get("relative_permeability", 1.0), method=method,
+                              offset=d.eccentricity)
     return _line_quantities(d, op, lp)
 
 
@@ -81,7 +85,8 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
     f = op.frequency_hz
     gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
     z0 = gamma / (lp.g + 2j * np.pi * f * lp.c)
-    z0_lossless = line.characteristic_impedance_lossless(a, b, d.dielectric["relative_permittivity"])
+    z0_lossless = line.characteristic_impedance_lossless(a, b, d.dielectric["relative_permittivity"],
+                                                         d.eccentricity)
     alpha_c, alpha_d = line.attenuation_split(gamma.real, lp.r, lp.g, z0_lossless)
     out = {
         "z0_ohm": np.abs(z0),
@@ -124,11 +129,16 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
     out["te11_cutoff_hz"] = modes.te11_cutoff_frequency(a, b, diel["relative_permittivity"])
     out["te11_cutoff_approx_hz"] = modes.te11_cutoff_frequency_approx(
         a, b, diel["relative_permittivity"])
+    # an offset centre conductor: arccosh geometry factor and the field crowding on its near side
+    lam = geometry_factor(a, b, d.eccentricity)
+    crowding = peak_field_factor(a, b, d.eccentricity)
     if op.peak_voltage_v is not None:
-        out["peak_e_field_v_per_m"] = fields.peak_electric_field(a, b, op.peak_voltage_v)
+        out["peak_e_field_v_per_m"] = fields.peak_electric_field(a, b, op.peak_voltage_v) * (
+            np.log(b / a) / lam * crowding)
     if "dielectric_strength_v_per_m" in diel:
         out["max_peak_voltage_v"] = fields.max_peak_voltage(
-            a, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor)
+            a, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor) * (
+            lam / np.log(b / a) / crowding)
     out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(mass.dc_loop_resistance(
         a, b, c, d.inner["resistivity_ohm_m"], d.shield["resistivity_ohm_m"]))
 
@@ -185,7 +195,7 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
             shield={**d.shield, "resistivity_ohm_m": thermal.resistivity_at_temperature(
                 d.shield["resistivity_ohm_m"], d.shield["temperature_coefficient_per_k"],
                 np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
-            dielectric=diel, jacket=d.jacket)
+            dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity)
         hot_em = electromagnetic(hot, op, method)
         for key in ("skin_depth_inner_m", "skin_depth_shield_m", "dc_resistance_inner_ohm_per_m",
                     "dc_resistance_shield_ohm_per_m"):

@@ -134,6 +134,9 @@ def format_report(result: Inspection) -> str:
                  f"c = {engineering(c, 'm')}, "
                  f"d = {engineering(c + g.jacket_thickness_m, 'm')} "
                  f"(b/a = {g.dielectric_radius_m / g.inner_radius_m:.4g})")
+    if g.eccentricity_m:
+        lines.append(f"            centre conductor off axis by {engineering(g.eccentricity_m, 'm')}"
+                     " (eccentric-line impedance, Wheeler loss factors, field crowding)")
     op = [f"f = {engineering(o.frequency_hz, 'Hz')}"]
     if o.peak_voltage_v is not None:
         op.append(f"peak voltage {engineering(o.peak_voltage_v, 'V')}")

@@ -39,7 +39,7 @@ MATERIAL_COLUMNS = ("conductor", "shield", "dielectric", "jacket")
 #: Column of a design's position among its member's rows of front.parquet (file order): the
 #: ``--index`` of ``cablefam design``.
 INDEX_COLUMN = "index"
-_SCORE_MEANING = {
+SCORE_MEANING = {
     "knee": "normalized distance below the hyperplane through the front's extremes "
             "(Das 1999); larger is a sharper knee",
     "weights": "weighted sum of range-normalized objectives; smaller is better",
@@ -260,7 +260,7 @@ def picks_to_json(result: PickResult) -> dict:
     return {
         "run": str(result.run_dir),
         "method": result.method,
-        "score_meaning": _SCORE_MEANING[result.method],
+        "score_meaning": SCORE_MEANING[result.method],
         "objectives": list(result.objectives),
         "weights": result.weights,
         "target": result.target,
@@ -278,7 +278,7 @@ def format_picks(result: PickResult) -> str:
     headers = (["rank", "catalog", "index", "conductor", "dielectric", "shield", "jacket",
                 "a [mm]", "b [mm]"] + [labels[c] for c in obj_cols] + ["score"])
     lines = [f"cablefam pick: {result.run_dir}, method {result.method} "
-             f"({_SCORE_MEANING[result.method]})"]
+             f"({SCORE_MEANING[result.method]})"]
     if result.weights:
         lines.append("weights: " + ", ".join(f"{k}={v:g}" for k, v in result.weights.items()))
     if result.target:

@@ -161,8 +161,8 @@ def front_scatter_figure(front: pd.DataFrame, objectives, evaluated: pd.DataFram
     if evaluated is not None and len(evaluated):
         handles.append(Line2D([], [], linestyle="", marker="o", markersize=4, color=_FADED,
                               label="feasible evaluated"))
-    fig.legend(handles=handles, loc="outside right upper", fontsize=8,
-               title=choice.name, title_fontsize=8)
+    fig.legend(handles=handles, loc="outside right center", fontsize=8,
+               title=f"materials: {choice.name}", title_fontsize=8)
     fig.suptitle(title)
     return fig
 
@@ -201,8 +201,9 @@ def parallel_figure(front: pd.DataFrame, objectives, title: str = ""):
     ax.set_xlim(-0.3, len(columns) - 0.7)
     ax.set_ylim(-0.12, 1.12)
     ax.set_yticks([0.0, 1.0], ["front min", "front max"], fontsize=8)
-    ax.legend(handles=[Line2D([], [], color=colours[c], label=f"catalog {c}") for c in catalogs],
-              loc="upper right", fontsize=8)
+    fig.legend(handles=[Line2D([], [], color=colours[c], label=f"catalog {c}")
+                        for c in catalogs], loc="outside lower center", ncols=len(catalogs),
+               fontsize=8)
     ax.set_title(title)
     return fig
 
@@ -314,7 +315,7 @@ def cross_section_figure(a, b, c, d, names: dict[str, str]):
     ax.set_aspect("equal")
     ax.set_xlabel("x [mm]")
     ax.set_ylabel("y [mm]")
-    ax.legend(loc="outside right upper", fontsize=8)
+    fig.legend(loc="outside lower center", ncols=2, fontsize=8)
     ax.set_title("Cross-section to scale")
     return fig
 

@@ -12,6 +12,7 @@ from typing import NamedTuple
 import numpy as np
 from scipy.constants import epsilon_0, mu_0, speed_of_light
 
+from physics.eccentricity import geometry_factor, wheeler_loss_factors
 from physics.internal_impedance import tube_internal_impedance, wire_internal_impedance
 
 
@@ -32,7 +33,7 @@ class LineParameters(NamedTuple):
     """Resistance of the shield alone [ohm m^-1]."""
 
 
-def capacitance(a, b, relative_permittivity):
+def capacitance(a, b, relative_permittivity, offset=0.0):
     r"""Capacitance per unit length, :math:`C = 2\pi\varepsilon_0\varepsilon_r/\ln(b/a)` [F m^-1].
 
     Parameters
@@ -41,23 +42,29 @@ def capacitance(a, b, relative_permittivity):
         Centre-conductor radius and dielectric outer radius [m], ``b > a``.
     relative_permittivity : array_like
         :math:`\varepsilon_r` of the dielectric [-].
+    offset : array_like, optional
+        Eccentricity of the centre conductor [m]; :math:`\ln(b/a)` becomes the arccosh form
+        of :func:`physics.eccentricity.geometry_factor`.
 
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012, Table 2.1.
     """
-    return 2.0 * np.pi * epsilon_0 * np.asarray(relative_permittivity, dtype=float) / np.log(
-        np.asarray(b, dtype=float) / np.asarray(a, dtype=float))
+    return 2.0 * np.pi * epsilon_0 * np.asarray(relative_permittivity, dtype=float) / (
+        geometry_factor(a, b, offset))
 
 
-def inductance_external(a, b):
+def inductance_external(a, b, offset=0.0):
     r"""External inductance per unit length, :math:`L_e = \mu_0 \ln(b/a) / (2\pi)` [H m^-1].
 
+    With an ``offset`` [m] of the centre conductor, :math:`\ln(b/a)` becomes the arccosh form
+    of :func:`physics.eccentricity.geometry_factor`.
+
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012, Table 2.1.
     """
-    return mu_0 / (2.0 * np.pi) * np.log(np.asarray(b, dtype=float) / np.asarray(a, dtype=float))
+    return mu_0 / (2.0 * np.pi) * geometry_factor(a, b, offset)
 
 
 def conductance(capacitance_f_per_m, frequency, loss_tangent):
@@ -73,7 +80,7 @@ def conductance(capacitance_f_per_m, frequency, loss_tangent):
 
 def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                     relative_permittivity, loss_tangent, inner_relative_permeability=1.0,
-                    shield_relative_permeability=1.0, method="auto"):
+                    shield_relative_permeability=1.0, method="auto", offset=0.0):
     r"""R, L, G, C of a coax at frequency :math:`f`, with exact conductor internal impedance.
 
     Parameters
@@ -90,6 +97,10 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
         Relative permeabilities of the conductors [-].
     method : {"auto", "exact", "asymptotic"}
         Passed to the internal-impedance functions.
+    offset : array_like, optional
+        Eccentricity of the centre conductor [m]: external L and C from the arccosh form,
+        internal impedances times Wheeler's per-conductor factors
+        (:func:`physics.eccentricity.wheeler_loss_factors`; skin-effect regime).
 
     Returns
     -------
@@ -118,10 +129,14 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                                       inner_relative_permeability, method=method)
     z_shield = tube_internal_impedance(b, c, shield_resistivity, frequency,
                                        shield_relative_permeability, method=method)
-    cap = capacitance(a, b, relative_permittivity)
+    if np.any(offset):
+        f_inner, f_shield = wheeler_loss_factors(a, b, offset)
+        z_inner = z_inner * f_inner
+        z_shield = z_shield * f_shield
+    cap = capacitance(a, b, relative_permittivity, offset)
     r_inner = z_inner.real
     r_shield = z_shield.real
-    ind = inductance_external(a, b) + (z_inner.imag + z_shield.imag) / omega
+    ind = inductance_external(a, b, offset) + (z_inner.imag + z_shield.imag) / omega
     g = conductance(cap, frequency, loss_tangent)
     return LineParameters(r=r_inner + r_shield, l=ind, g=g, c=cap,
                           r_inner=r_inner, r_shield=r_shield)
@@ -155,7 +170,7 @@ def characteristic_impedance(r, l, g, c, frequency):  # noqa: E741
     return propagation_constant(r, l, g, c, frequency) / (g + 1j * omega * c)
 
 
-def characteristic_impedance_lossless(a, b, relative_permittivity):
+def characteristic_impedance_lossless(a, b, relative_permittivity, offset=0.0):
     r"""Lossless characteristic impedance :math:`\sqrt{L_e/C} = \eta_0\ln(b/a)/(2\pi\sqrt{\varepsilon_r})` [ohm].
 
     References
@@ -164,7 +179,7 @@ def characteristic_impedance_lossless(a, b, relative_permittivity):
     """
     eta_0 = mu_0 * speed_of_light
     return eta_0 / (2.0 * np.pi * np.sqrt(np.asarray(relative_permittivity, dtype=float))) * (
-        np.log(np.asarray(b, dtype=float) / np.asarray(a, dtype=float)))
+        geometry_factor(a, b, offset))
 
 
 def attenuation_split(alpha, r, g, z0_lossless):

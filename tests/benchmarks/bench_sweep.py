@@ -1,0 +1,250 @@
+"""Sweep benchmark: wall time of the demo sweep, and how fast one search approaches the front.
+
+Part 1 runs the bundled demo sweep (``run_sweep`` into a temporary folder, no progress output)
+and splits its wall time, from ``run.json``, into the physics (the sum over tasks of
+``physics_seconds``: the member problem's ``_evaluate``, i.e. decoding, ``evaluate`` and the
+constraint margins), the rest of the search loop (pymoo: sampling, mating, survival,
+non-dominated sorting, and the feasible archive) and the writing of the run folder (front
+re-evaluation with ``max_power``, Parquet, JSON).
+
+Part 2 takes one member x catalog task of the demo with the materials fixed (so that only the
+four radii are free), runs the same search generation by generation, and compares the
+hypervolume of its feasible archive with that of a dense brute-force grid evaluated with the same
+physics (``MemberProblem.evaluate_designs``), with one shared normalization and reference point
+(``pymoo.indicators.hv.HV``). The last line printed is one JSON object with the figures.
+
+Run from the repository root::
+
+    .venv/bin/python tests/benchmarks/bench_sweep.py
+
+The file name does not start with ``test_``: pytest does not collect it.
+"""
+
+from __future__ import annotations
+
+import os
+
+# One thread everywhere, set before numpy is imported (the figures are single-core figures).
+for _var in ("OMP_NUM_THREADS", "OPENBLAS_NUM_THREADS", "MKL_NUM_THREADS",
+             "VECLIB_MAXIMUM_THREADS", "NUMEXPR_NUM_THREADS", "BLIS_NUM_THREADS"):
+    os.environ[_var] = "1"
+
+import argparse  # noqa: E402
+import json  # noqa: E402
+import platform  # noqa: E402
+import statistics  # noqa: E402
+import tempfile  # noqa: E402
+import time  # noqa: E402
+
+import numpy as np  # noqa: E402
+import pymoo  # noqa: E402
+from pymoo.indicators.hv import HV  # noqa: E402
+from pymoo.util.nds.non_dominated_sorting import NonDominatedSorting  # noqa: E402
+from scipy.constants import mu_0, speed_of_light  # noqa: E402
+
+from optimizer.materials import read_toml  # noqa: E402
+from optimizer.objectives import objective_matrix  # noqa: E402
+from optimizer.problem import MemberProblem  # noqa: E402
+from optimizer.search import _RecordingProblem, make_algorithm, task_seed  # noqa: E402
+from optimizer.sweep import RUN_FILE, run_sweep  # noqa: E402
+from optimizer.sweep_spec import demo_sweep_path, load_sweep, parse_sweep  # noqa: E402
+
+#: The task of part 2: a member of the demo sweep, a catalog, and one material per table.
+HV_MEMBER = "mast-feeder-50"
+HV_CATALOG = "baseline.toml"
+HV_MATERIALS = {"conductors": ["copper"], "shields": ["copper"], "dielectrics": ["solid-pe"],
+                "jackets": ["pe"]}
+#: Reference point of the hypervolume in objectives normalized to [0, 1] between the ideal
+#: and nadir points of the grid's front (common practice, no source).
+HV_REFERENCE = 1.1
+
+
+# --------------------------------------------------------------------------- part 1
+
+
+def demo_sweep_timing(repeats):
+    """Run the demo sweep ``repeats`` times; return the run.json figures of each run."""
+    sweep = load_sweep(demo_sweep_path())
+    runs = []
+    for _ in range(repeats):
+        with tempfile.TemporaryDirectory(prefix="cablefam-bench-") as tmp:
+            t0 = time.perf_counter()
+            run_dir = run_sweep(sweep, tmp, progress=None)
+            wall = time.perf_counter() - t0
+            info = json.loads((run_dir / RUN_FILE).read_text(encoding="utf-8"))
+        tasks = info["tasks"]
+        task_s = sum(t["seconds"] for t in tasks)
+        physics_s = sum(t["physics_seconds"] for t in tasks)
+        runs.append({"wall_s": wall, "run_json_wall_s": info["wall_seconds"],
+                     "evaluations": info["counts"]["evaluations"],
+                     "front_rows": info["counts"]["front_rows"], "tasks": len(tasks),
+                     "task_s": task_s, "physics_s": physics_s,
+                     "pymoo_s": task_s - physics_s, "output_s": wall - task_s})
+    return runs
+
+
+# --------------------------------------------------------------------------- part 2
+
+
+def fixed_material_sweep():
+    """The demo sweep restricted to one catalog and one material per table."""
+    path = demo_sweep_path()
+    raw = read_toml(path)
+    raw["catalogs"] = [c for c in raw["catalogs"] if c.endswith(HV_CATALOG)]
+    raw["search"].update(HV_MATERIALS)
+    raw["name"] = raw["name"] + "-hv"
+    return parse_sweep(raw, str(path), path.parent, path.read_text(encoding="utf-8"))
+
+
+def grid_points(problem: MemberProblem, n_a, n_ratio, n_shield, n_jacket, band_widening):
+    """A dense grid of decision vectors covering the member's impedance band.
+
+    The impedance constraint confines the feasible designs to a thin band of b/a, so the grid
+    runs over log-spaced a, and over b = a * ratio with the ratio spanning the band of the
+    lossless impedance ``impedance_ohm +- band_widening * tolerance`` (the lossy |Z0| lies
+    within a fraction of an ohm of it); shield and jacket thickness run over their bounds.
+    Points with b outside its bounds are dropped. Returns an (n, 4) decision matrix.
+    """
+    layout = problem.layout
+    if layout.free_geometry != ("inner_radius_m", "dielectric_radius_m", "shield_thickness_m",
+                                "jacket_thickness_m") or layout.free_materials:
+        raise ValueError(f"grid expects the four radii free and no material choice, got "
+                         f"{layout.free_geometry} and {layout.free_materials}")
+    b_lo, b_hi = layout.bounds["dielectric_radius_m"]
+    eps = float(problem.designs(np.array([problem.xl]))[0].dielectric["relative_permittivity"][0])
+    m = problem.member
+    eta_0 = mu_0 * speed_of_light
+    z_lo = m.impedance_ohm - band_widening * m.impedance_tolerance_ohm
+    z_hi = m.impedance_ohm + band_widening * m.impedance_tolerance_ohm
+    ratio = np.exp(2.0 * np.pi * np.sqrt(eps) * np.linspace(z_lo, z_hi, n_ratio) / eta_0)
+    a = np.geomspace(*layout.bounds["inner_radius_m"], n_a)
+    t_s = np.linspace(*layout.bounds["shield_thickness_m"], n_shield)
+    t_j = np.linspace(*layout.bounds["jacket_thickness_m"], n_jacket)
+    aa, rr, ss, jj = np.meshgrid(a, ratio, t_s, t_j, indexing="ij")
+    x = np.column_stack([aa.ravel(), (aa * rr).ravel(), ss.ravel(), jj.ravel()])
+    keep = (x[:, 1] >= b_lo) & (x[:, 1] <= b_hi)
+    return x[keep]
+
+
+def feasible_front(problem: MemberProblem, x, chunk):
+    """Objectives of the feasible non-dominated points of ``x`` (evaluated in chunks)."""
+    fs = []
+    n_feasible = 0
+    for start in range(0, len(x), chunk):
+        values, margins, _ = problem.evaluate_designs(x[start:start + chunk])
+        ok = np.all(np.column_stack([v for v in margins.values()]) >= 0.0, axis=1)
+        f = objective_matrix(values, problem.objectives)[ok]
+        n_feasible += int(ok.sum())
+        if len(f):
+            fs.append(f[NonDominatedSorting().do(f, only_non_dominated_front=True)])
+    f = np.vstack(fs)
+    return f[NonDominatedSorting().do(f, only_non_dominated_front=True)], n_feasible
+
+
+def search_curve(sweep, member, catalog_name, population, generations, seed):
+    """Feasible archive objectives and evaluation counts at each generation in ``generations``."""
+    problem = _RecordingProblem(sweep, member, catalog_name)
+    algorithm = make_algorithm(problem, population, seed)
+    algorithm.setup(problem, termination=("n_gen", max(generations)), seed=seed, verbose=False)
+    snapshots, gen = {}, 0
+    while algorithm.has_next():
+        algorithm.next()
+        gen += 1
+        if gen in generations:
+            snapshots[gen] = (problem.n_evaluations, problem.archive.f.copy())
+    return snapshots
+
+
+def main(argv=None):
+    parser = argparse.ArgumentParser(description=__doc__.split("\n")[0])
+    parser.add_argument("--repeats", type=int, default=3, help="runs of the demo sweep")
+    parser.add_argument("--generations", type=int, nargs="+", default=[5, 10, 20, 40, 80])
+    parser.add_argument("--seeds", type=int, default=3, help="independent searches in part 2")
+    parser.add_argument("--grid", type=int, nargs=4, default=[600, 31, 6, 4],
+                        metavar=("N_A", "N_RATIO", "N_SHIELD", "N_JACKET"))
+    parser.add_argument("--band-widening", type=float, default=1.3,
+                        help="grid ratio band as a multiple of the impedance tolerance")
+    parser.add_argument("--chunk", type=int, default=50_000)
+    args = parser.parse_args(argv)
+    if args.repeats < 1 or args.seeds < 1:
+        parser.error("--repeats and --seeds must be >= 1")
+    results = {}
+    print(f"bench_sweep (python {platform.python_version()}, numpy {np.__version__}, pymoo "
+          f"{pymoo.__version__}, 1 thread)")
+
+    # part 1 ----------------------------------------------------------------------------------
+    runs = demo_sweep_timing(args.repeats)
+    walls = [r["wall_s"] for r in runs]
+    med = sorted(runs, key=lambda r: r["wall_s"])[len(runs) // 2]
+    wall = med["wall_s"]
+    share = {k: med[k] / wall for k in ("physics_s", "pymoo_s", "output_s")}
+    print(f"demo sweep: {med['tasks']} tasks, {med['evaluations']:,} evaluations, "
+          f"{med['front_rows']} front rows; wall {wall:.2f} s (median of {len(runs)}: "
+          f"{', '.join(f'{w:.2f}' for w in walls)})")
+    print(f"  physics (sum of task physics_seconds) {med['physics_s']:6.2f} s "
+          f"{100 * share['physics_s']:5.1f} %  ({med['evaluations'] / med['physics_s']:,.0f} "
+          f"evaluations/s)")
+    print(f"  pymoo machinery + archive            {med['pymoo_s']:6.2f} s "
+          f"{100 * share['pymoo_s']:5.1f} %")
+    print(f"  run folder (front with max_power,    {med['output_s']:6.2f} s "
+          f"{100 * share['output_s']:5.1f} %\n   Parquet, run.json)")
+    print(f"  physics share of the search loop alone: "
+          f"{100 * med['physics_s'] / med['task_s']:.1f} %")
+    results.update({
+        "wall_s": wall, "wall_s_runs": walls, "evaluations": med["evaluations"],
+        "tasks": med["tasks"], "physics_s": med["physics_s"], "pymoo_s": med["pymoo_s"],
+        "output_s": med["output_s"], "physics_share": share["physics_s"],
+        "pymoo_share": share["pymoo_s"], "output_share": share["output_s"],
+        "physics_share_of_search": med["physics_s"] / med["task_s"],
+        "evaluations_per_s": med["evaluations"] / wall})
+
+    # part 2 ----------------------------------------------------------------------------------
+    sweep = fixed_material_sweep()
+    member = next(m for m in sweep.spec.member if m.name == HV_MEMBER)
+    catalog_name = sweep.catalogs[0].name
+    problem = MemberProblem(sweep, member, catalog_name)
+    t0 = time.perf_counter()
+    x_grid = grid_points(problem, *args.grid, args.band_widening)
+    f_grid, n_feasible = feasible_front(problem, x_grid, args.chunk)
+    t_grid = time.perf_counter() - t0
+    print(f"hypervolume: {member.name} x {catalog_name}, materials "
+          f"{', '.join(f'{k}={v[0]}' for k, v in HV_MATERIALS.items())}; objectives "
+          f"{', '.join(problem.objectives)}")
+    print(f"  grid {' x '.join(map(str, args.grid))} -> {len(x_grid):,} points in bounds "
+          f"({t_grid:.1f} s, {len(x_grid) / t_grid:,.0f} evaluations/s): {n_feasible:,} "
+          f"feasible, {len(f_grid)} on the front")
+    ideal, nadir = f_grid.min(axis=0), f_grid.max(axis=0)
+    hv = HV(ref_point=np.full(f_grid.shape[1], HV_REFERENCE), ideal=ideal, nadir=nadir,
+            zero_to_one=True, norm_ref_point=False)
+    hv_grid = float(hv(f_grid))
+    population = sweep.spec.search.population
+    gens = sorted(set(args.generations))
+    base_seed = task_seed(sweep.spec.seed, member.name, catalog_name)
+    curves = []
+    for k in range(args.seeds):
+        snaps = search_curve(sweep, member, catalog_name, population, gens, base_seed + k)
+        curves.append({g: (n, float(hv(f)) / hv_grid if len(f) else 0.0, len(f))
+                       for g, (n, f) in snaps.items()})
+    print(f"  HV of the grid front {hv_grid:.6f} (objectives normalized to the grid front's "
+          f"ideal/nadir, reference point {HV_REFERENCE} each); search with population "
+          f"{population}, {args.seeds} seeds:")
+    print("    generation  evaluations  HV ratio (median; per seed)")
+    by_gen = {}
+    for g in gens:
+        ratios = [c[g][1] for c in curves]
+        by_gen[g] = statistics.median(ratios)
+        print(f"    {g:10d}  {curves[0][g][0]:11,d}  {by_gen[g]:.4f}  ("
+              + ", ".join(f"{r:.4f}" for r in ratios) + ")")
+    results.update({
+        "hv_member": member.name, "hv_catalog": catalog_name, "hv_materials": HV_MATERIALS,
+        "hv_grid": args.grid, "hv_grid_points": int(len(x_grid)),
+        "hv_grid_feasible": n_feasible, "hv_grid_front": int(len(f_grid)),
+        "hv_grid_seconds": t_grid, "hv_reference_point": HV_REFERENCE,
+        "hv_population": population, "hv_seeds": args.seeds,
+        "hv_ratio_by_generation": {str(g): by_gen[g] for g in gens},
+        "hv_evaluations_by_generation": {str(g): curves[0][g][0] for g in gens}})
+    print(json.dumps(results, sort_keys=True))
+
+
+if __name__ == "__main__":
+    main()
