@@ -26,9 +26,10 @@ Price = Annotated[float, Field(ge=0)]
 
 
 class Record(BaseModel):
-    """Strict base: unknown keys are errors, strings are not numbers, records are immutable."""
+    """Strict base: unknown keys are errors, strings are not numbers, inf and nan are not
+    values, records are immutable."""
 
-    model_config = ConfigDict(extra="forbid", strict=True, frozen=True)
+    model_config = ConfigDict(extra="forbid", strict=True, frozen=True, allow_inf_nan=False)
 
 
 class ConductorMaterial(Record):

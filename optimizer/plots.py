@@ -294,8 +294,9 @@ def plot_comparison(comparison, out_dir, formats=FORMATS) -> list[Path]:
 
 # ------------------------------------------------------------------------ design-sheet plots
 
-def cross_section_figure(a, b, c, d, names: dict[str, str]):
-    """The cable's cross-section to scale (axes in mm, equal aspect)."""
+def cross_section_figure(a, b, c, d, names: dict[str, str], offset: float = 0.0):
+    """The cable's cross-section to scale (axes in mm, equal aspect); the centre conductor
+    is drawn ``offset`` [m] off the axis when it is eccentric."""
     plt = _pyplot()
     from matplotlib.patches import Circle
 
@@ -305,7 +306,8 @@ def cross_section_figure(a, b, c, d, names: dict[str, str]):
     for table, radius, colour in layers:
         if table == "jacket" and d <= c:
             continue
-        ax.add_patch(Circle((0.0, 0.0), 1e3 * radius, facecolor=colour, edgecolor="#333333",
+        centre = (1e3 * offset if table == "conductor" else 0.0, 0.0)
+        ax.add_patch(Circle(centre, 1e3 * radius, facecolor=colour, edgecolor="#333333",
                             linewidth=0.6, alpha=0.85 if table == "jacket" else 1.0,
                             label=f"{table}: {names.get(table) or '-'}, "
                                   f"r = {1e3 * radius:.4g} mm"))
@@ -338,6 +340,9 @@ def profile_figure(profile: pd.DataFrame, a, b, c, d, note: str = ""):
         for radius in (a, b, c, d):
             ax.axvline(1e3 * radius, color="#666666", linestyle="--", linewidth=0.7)
         ax.grid(True, color="#DDDDDD", linewidth=0.6)
+    if np.any(j > 0.0):
+        peak = float(np.nanmax(j))
+        axes[1].set_ylim(peak * 1e-4, peak * 2.0)  # four decades: the skin layers
     axes[-1].set_xlabel("radius r [mm] (dashed: a, b, c, d)")
     axes[0].set_title(f"Field profiles at the operating point{': ' + note if note else ''}",
                       fontsize=10)

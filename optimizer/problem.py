@@ -102,7 +102,7 @@ class CategoricalRounding(Repair):
 
 
 class ImpedanceSeededSampling(Sampling):
-    """Uniform random sampling in which a share of the samples is put on the impedance target.
+    r"""Uniform random sampling in which a share of the samples is put on the impedance target.
 
     The feasible band of a coax is a thin sliver of the (a, b) box: ``b/a`` must sit within a
     few percent of :math:`\exp(2\pi\sqrt{\varepsilon_r} Z_0/\eta_0)`. For ``share`` of the

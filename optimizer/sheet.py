@@ -127,17 +127,19 @@ def render_html(blocks, title: str) -> str:
 
 # --------------------------------------------------------------------------------- physics
 
-def _repeat(design_arrays_: Designs, n: int) -> Designs:
+def _repeat(designs: Designs, n: int) -> Designs:
+    """Every array field of a one-design :class:`Designs` repeated ``n`` times."""
     def rep(v):
-        return np.repeat(np.asarray(v, dtype=float), n)
+        return np.repeat(np.asarray(v, dtype=float).reshape(-1), n)
 
-    def table(t):
-        return None if t is None else {k: rep(v) for k, v in t.items()}
-
-    d = design_arrays_
-    return Designs(rep(d.inner_radius), rep(d.dielectric_radius), rep(d.shield_thickness),
-                   rep(d.jacket_thickness), table(d.inner), table(d.shield),
-                   table(d.dielectric), table(d.jacket))
+    changes = {}
+    for fld in dataclasses.fields(designs):
+        value = getattr(designs, fld.name)
+        if isinstance(value, dict):
+            changes[fld.name] = {k: rep(v) for k, v in value.items()}
+        elif value is not None:
+            changes[fld.name] = rep(value)
+    return dataclasses.replace(designs, **changes)
 
 
 def frequency_response(design: Design, te11_cutoff_hz: float | None,
@@ -237,6 +239,7 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
     a, b = g.inner_radius_m, g.dielectric_radius_m
     c = b + g.shield_thickness_m
     d = c + g.jacket_thickness_m
+    offset = float(getattr(g, "eccentricity_m", 0.0) or 0.0)
     stem = plots.safe_name(f"{member}-{catalog}-{index}")
     ids = {t: row.get(t) for t in ("conductor", "shield", "dielectric", "jacket")}
     names = {t: f"{ids[t]}" for t in ids if ids[t]}
@@ -251,11 +254,14 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
         note = "I = 1 A"
     if o.peak_voltage_v is not None:
         note += f", V = {o.peak_voltage_v:g} V peak"
+    if offset > 0.0:
+        note += "; concentric profile, the offset conductor is not drawn here"
     freq = frequency_response(design, values.get("te11_cutoff_hz"))
     paths: list[Path] = []
     images = {}
     figures = {
-        "section": (plots.cross_section_figure(a, b, c, d, names), "cross-section to scale"),
+        "section": (plots.cross_section_figure(a, b, c, d, names, offset),
+                    "cross-section to scale"),
         "profiles": (plots.profile_figure(profile, a, b, c, d, note),
                      "B(r), |J(r)| and E(r) at the operating point"),
         "frequency": (plots.frequency_figure(freq, o.frequency_hz, values.get("te11_cutoff_hz"),
@@ -290,6 +296,7 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
             ("outer radius d", engineering(d, "m")),
             ("shield thickness", engineering(g.shield_thickness_m, "m")),
             ("jacket thickness", engineering(g.jacket_thickness_m, "m")),
+            ("centre-conductor offset (eccentricity)", engineering(offset, "m")),
             ("b/a", f"{b / a:.4g}"))),
         images["section"],
         Heading(2, "Materials and their sources"),

@@ -145,11 +145,14 @@ def parse_sweep(raw: dict, where: str, base_dir: Path, text: str = "",
     dup = sorted({n for n in names if names.count(n) > 1})
     if dup:
         raise InputError(f"{where}: member.name = {dup[0]!r}: names must be unique")
-    if catalog_texts is None:
-        catalogs = tuple(load_catalog(base_dir / c) for c in spec.catalogs)
-    else:
-        catalogs = tuple(catalog_from_text(catalog_texts[c], base_dir / c)
-                         for c in spec.catalogs)
+    loaded = []
+    for entry in spec.catalogs:
+        try:
+            loaded.append(load_catalog(base_dir / entry) if catalog_texts is None
+                          else catalog_from_text(catalog_texts[entry], base_dir / entry))
+        except InputError as exc:
+            raise InputError(f"{where}: catalogs = {entry!r}: {exc}") from None
+    catalogs = tuple(loaded)
     cat_names = [c.name for c in catalogs]
     if len(set(cat_names)) != len(cat_names):
         raise InputError(f"{where}: catalogs = {spec.catalogs!r}: two catalogs share the "

@@ -120,7 +120,8 @@ def nearest_distances(f, target) -> np.ndarray:
     """Euclidean distance to a target point in range-normalized objective space.
 
     ``target`` has one value per objective, in the units of ``f``; NaN entries are left out
-    of the distance (objectives the caller does not care about).
+    of the distance (objectives the caller does not care about). An objective of zero range
+    (e.g. a single point) is scaled by its magnitude instead, a relative distance.
     """
     f = _as_matrix(f)
     t = np.asarray(target, dtype=float)
@@ -130,7 +131,8 @@ def nearest_distances(f, target) -> np.ndarray:
     use = ~np.isnan(t)
     if not use.any():
         raise ValueError("target gives no objective value")
-    span = np.where(nadir > ideal, nadir - ideal, 1.0)
+    magnitude = np.where(np.abs(ideal) > 0.0, np.abs(ideal), 1.0)
+    span = np.where(nadir > ideal, nadir - ideal, magnitude)
     d = (f[:, use] - t[use]) / span[use]
     return np.sqrt(np.sum(d * d, axis=1))
 

@@ -315,9 +315,6 @@ def test_bad_profile_input_writes_no_profile(cli, tmp_path):
     assert code == 2 and not profile.exists()
 
 
-@pytest.mark.xfail(strict=True, reason="BUG optimizer/materials.py Record.model_config: pydantic "
-                   "accepts inf (allow_inf_nan defaults to True); power_w = inf reaches "
-                   "physics.thermal, whose ValueError escapes as a traceback (exit 1)")
 def test_infinite_power_is_an_input_error(cli, tmp_path):
     path = tmp_path / "inf-power.toml"
     path.write_text(_edit((DATA / "inline_no_jacket.toml").read_text(), "current_a = 2.0",
@@ -325,9 +322,6 @@ def test_infinite_power_is_an_input_error(cli, tmp_path):
     assert_one_line_error(*cli("inspect", path), "[operating] power_w = inf")
 
 
-@pytest.mark.xfail(strict=True, reason="BUG optimizer/design_file.py Operating.peak_voltage_v "
-                   "(and every ge=0 / gt=0 field of optimizer/materials.py) accepts inf: inspect "
-                   "exits 0 and --json prints peak_e_field_v_per_m: null")
 def test_infinite_peak_voltage_is_an_input_error(cli, tmp_path):
     path = tmp_path / "inf-voltage.toml"
     path.write_text(_edit(BASE, "frequency_hz = 100e6",

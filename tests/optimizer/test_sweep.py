@@ -421,9 +421,6 @@ def test_bad_sweep_fails_before_any_search(cli, tmp_path, no_search, case):
     assert not out_dir.exists()
 
 
-@pytest.mark.xfail(strict=True, reason="optimizer/sweep_spec.py parse_sweep, `load_catalog("
-                   "base_dir / c)`: an unreadable catalog's message names the catalog file "
-                   "only, not the sweep file nor its key `catalogs`")
 @pytest.mark.parametrize("case", ["missing-catalog", "catalog-not-toml"])
 def test_unreadable_catalog_message_names_the_sweep_key(cli, tmp_path, case):
     path, _ = write_bad_sweep(tmp_path, case)
