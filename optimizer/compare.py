@@ -75,8 +75,13 @@ class Comparison:
 
 
 def _first_difference(a: dict, b: dict) -> str | None:
-    for key in sorted(set(a) | set(b)):
-        if a.get(key) != b.get(key):
+    """First key, in sorted order, whose value differs between two member specifications.
+
+    Keys present in only one (a key added to the sweep format after the older run) are not
+    compared: a run written before a key existed ran with its default.
+    """
+    for key in sorted(set(a) & set(b)):
+        if a[key] != b[key]:
             return key
     return None
 
@@ -95,9 +100,9 @@ def check_comparable(provenances: dict[str, dict]) -> tuple[str, ...]:
                              "compared")
         for m in prov.get("members", ()):
             name = m.get("name")
-            if name in members and members[name][1] != m:
+            key = _first_difference(members[name][1], m) if name in members else None
+            if key is not None:
                 other_run, other = members[name]
-                key = _first_difference(other, m)
                 raise InputError(f"member {name!r}: {key} = {m.get(key)!r} in {run} but "
                                  f"{other.get(key)!r} in {other_run}: the runs used different "
                                  "operating points or limits for this member; rename one")

@@ -16,7 +16,8 @@ MIN_RADIUS_RATIO = 1.01
 NON_FINITE_MARGIN = -1.0e3
 
 CONSTRAINTS = ("geometry", "impedance", "peak_field", "conductor_temperature",
-               "jacket_temperature", "single_mode", "outer_diameter", "shield_skin_depths")
+               "jacket_temperature", "single_mode", "outer_diameter", "shield_skin_depths",
+               "impedance_yield")
 
 
 def geometry_margin(a, b):
@@ -76,5 +77,10 @@ def constraint_margins(values, designs, member, dielectric_max_c, jacket_max_c):
         m["shield_skin_depths"] = (designs.shield_thickness - need) / need
     else:
         m["shield_skin_depths"] = off
+    if member.min_impedance_yield is not None and "impedance_yield" in values:
+        m["impedance_yield"] = (values["impedance_yield"] - member.min_impedance_yield
+                                ) / member.min_impedance_yield
+    else:
+        m["impedance_yield"] = off
     return {k: np.where(np.isfinite(v), v, NON_FINITE_MARGIN).astype(float) * np.ones(shape)
             for k, v in ((k, m[k]) for k in CONSTRAINTS)}

@@ -25,6 +25,7 @@ OBJECTIVES = {o.name: o for o in (
               "DC loop resistance [ohm/km]"),
     Objective("max_power", "max_power_w", True, "max CW power [W]"),
     Objective("max_peak_voltage", "max_peak_voltage_v", True, "max peak voltage [V]"),
+    Objective("impedance_yield", "impedance_yield", True, "impedance yield [-]"),
 )}
 
 

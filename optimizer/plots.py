@@ -329,9 +329,9 @@ def profile_figure(profile: pd.DataFrame, a, b, c, d, note: str = ""):
                              sharex=True)
     r_mm = 1e3 * profile["r_m"].to_numpy()
     j = profile["j_a_per_m2"].to_numpy(dtype=float)
-    series = [("b_t", "|B| [T]", profile["b_t"].to_numpy(), "linear"),
+    series = [("b_t", "|B| [mT]", 1e3 * profile["b_t"].to_numpy(), "linear"),
               ("j_a_per_m2", "|J| [A/m$^2$]", np.where(j > 0.0, j, np.nan), "log"),
-              ("e_v_per_m", "E [V/m]", profile["e_v_per_m"].to_numpy(), "linear")]
+              ("e_v_per_m", "E [kV/m]", 1e-3 * profile["e_v_per_m"].to_numpy(), "linear")]
     colours = (OKABE_ITO["blue"], OKABE_ITO["vermillion"], OKABE_ITO["bluish green"])
     for ax, (_, label, y, scale), colour in zip(axes, series, colours):
         ax.plot(r_mm, y, color=colour, linewidth=1.2)

@@ -21,6 +21,8 @@ from optimizer.constraints import (CONSTRAINTS, MIN_RADIUS_RATIO, NON_FINITE_MAR
 from optimizer.evaluate import Designs, OperatingPoint, evaluate
 from optimizer.objectives import OBJECTIVES, objective_matrix
 from optimizer.sweep_spec import GEOMETRY_KEYS, MemberSpec, Sweep
+from optimizer.tolerance import (common_draws, impedance_yield_analytic,
+                                 impedance_yield_monte_carlo)
 
 MATERIAL_TABLES = ("conductor", "shield", "dielectric", "jacket")
 _CATALOG_KIND = {"conductor": "conductor", "shield": "conductor", "dielectric": "dielectric",
@@ -140,7 +142,7 @@ class MemberProblem(Problem):
     """Vectorized problem: one physics call per generation for the whole population."""
 
     def __init__(self, sweep: Sweep, member: MemberSpec, catalog_name: str,
-                 record_evaluated: bool = False):
+                 record_evaluated: bool = False, seed: int = 0):
         self.sweep = sweep
         self.member = member
         self.catalog = next(c for c in sweep.catalogs if c.name == catalog_name)
@@ -151,6 +153,13 @@ class MemberProblem(Problem):
         self.record_evaluated = record_evaluated
         self.evaluated: list[np.ndarray] = []
         self._tables = {t: self._property_table(t) for t in MATERIAL_TABLES}
+        tol = sweep.spec.tolerance
+        self.spread = None if tol is None else tol.spread()
+        self.draws = None
+        if tol is not None and tol.method == "monte-carlo":
+            # common random numbers: fixed by the task seed, independent of the search's stream
+            draw_seed = np.random.SeedSequence([seed, 0x7013]).generate_state(1)[0]
+            self.draws = common_draws(self.spread, tol.samples, int(draw_seed))
         xl, xu = self.layout.lower_upper()
         super().__init__(n_var=self.layout.n_var, n_obj=len(self.objectives),
                          n_ieq_constr=len(CONSTRAINTS), xl=xl, xu=xu, vtype=float)
@@ -201,10 +210,27 @@ class MemberProblem(Problem):
         if include_max_power is None:
             include_max_power = self.needs_max_power
         values = evaluate(computed, self.operating_point(), include_max_power=include_max_power)
+        if self.spread is not None:
+            values.update(self.impedance_yield(computed, values))
         diel_max = computed.dielectric.get("max_temperature_c")
         jacket_max = None if computed.jacket is None else computed.jacket.get("max_temperature_c")
         margins = constraint_margins(values, actual, self.member, diel_max, jacket_max)
         return values, margins, idx
+
+    def impedance_yield(self, d: Designs, values) -> dict[str, np.ndarray]:
+        """Impedance yield and the 3-sigma impedance band of every design."""
+        m = self.member
+        scale = values["z0_ohm"] / values["z0_lossless_ohm"]
+        eps = d.dielectric["relative_permittivity"]
+        if self.draws is not None:
+            y, lo, hi = impedance_yield_monte_carlo(
+                d.inner_radius, d.dielectric_radius, eps, m.impedance_ohm,
+                m.impedance_tolerance_ohm, self.spread, self.draws, scale)
+        else:
+            y, lo, hi = impedance_yield_analytic(
+                d.inner_radius, d.dielectric_radius, eps, m.impedance_ohm,
+                m.impedance_tolerance_ohm, self.spread, scale)
+        return {"impedance_yield": y, "z0_3sigma_low_ohm": lo, "z0_3sigma_high_ohm": hi}
 
     def _evaluate(self, x, out, *args, **kwargs):
         values, margins, _ = self.evaluate_designs(x)

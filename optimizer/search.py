@@ -125,7 +125,8 @@ def run_task(sweep: Sweep, member: MemberSpec, catalog_name: str, seed: int, gen
     from optimizer.checkpoint import capture, restore
 
     t_start = time.perf_counter()
-    problem = _RecordingProblem(sweep, member, catalog_name, record_evaluated=record_evaluated)
+    problem = _RecordingProblem(sweep, member, catalog_name, record_evaluated=record_evaluated,
+                                seed=seed)
     algorithm = make_algorithm(problem, population, seed)
     algorithm.setup(problem, termination=("n_gen", generations), seed=seed, verbose=False)
     gen = 0

@@ -311,7 +311,7 @@ def write_outputs(sweep, settings, run_dir, results, started, wall, resumed=0, f
     fronts, evaluated = [], []
     members = {m.name: m for m in sweep.spec.member}
     for r in results:
-        problem = MemberProblem(sweep, members[r.member], r.catalog)
+        problem = MemberProblem(sweep, members[r.member], r.catalog, seed=r.seed)
         fronts.append(front_frame(problem, r.x_front))
         if r.evaluated is not None:
             evaluated.append(evaluated_frame(problem, r.evaluated))

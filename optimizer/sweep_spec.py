@@ -12,7 +12,7 @@ import tomllib
 from dataclasses import dataclass
 from importlib import resources
 from pathlib import Path
-from typing import Annotated
+from typing import Annotated, Literal
 
 from pydantic import Field, ValidationError, field_validator
 
@@ -76,6 +76,39 @@ class SearchSpec(Record):
         return _check_bounds(v, allow_zero=True)
 
 
+_SPREAD_VARIABLES = ("inner_radius", "dielectric_radius", "eccentricity", "relative_permittivity")
+
+
+class ToleranceSpec(Record):
+    """Manufacturing spread: a standard deviation (``*_sd``) or a +/- band (``*_band``, uniform)
+    per variable; lengths in metres, the permittivity spread relative to its value."""
+
+    method: Literal["monte-carlo", "analytic"] = "monte-carlo"
+    samples: Annotated[int, Field(ge=10, le=1_000_000)] = 1000
+    inner_radius_sd_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    inner_radius_band_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    dielectric_radius_sd_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    dielectric_radius_band_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    eccentricity_sd_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    eccentricity_band_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    relative_permittivity_sd: Annotated[float, Field(ge=0, lt=0.5)] = 0.0
+    relative_permittivity_band: Annotated[float, Field(ge=0, lt=0.5)] = 0.0
+
+    def spread(self):
+        """The :class:`optimizer.tolerance.Spread` these keys describe."""
+        from optimizer.tolerance import Spread
+
+        values, uniform = {}, []
+        for var in _SPREAD_VARIABLES:
+            unit = "" if var == "relative_permittivity" else "_m"
+            sd = getattr(self, f"{var}_sd{unit}")
+            band = getattr(self, f"{var}_band{unit}")
+            if band > 0:
+                uniform.append(f"{var}{unit}")
+            values[f"{var}{unit}"] = band if band > 0 else sd
+        return Spread(**values, uniform=tuple(uniform))
+
+
 class MemberSpec(Record):
     name: str
     impedance_ohm: Positive
@@ -88,6 +121,7 @@ class MemberSpec(Record):
     field_safety_factor: Annotated[float, Field(ge=1.0)] = 1.0
     single_mode_margin: Annotated[float, Field(ge=0.0)] = 1.0
     min_shield_skin_depths: Annotated[float, Field(ge=0.0)] = 2.0
+    min_impedance_yield: Annotated[float, Field(gt=0.0, le=1.0)] | None = None
 
     @field_validator("name")
     @classmethod
@@ -103,6 +137,7 @@ class SweepFile(Record):
     description: str | None = None
     catalogs: Annotated[list[str], Field(min_length=1)]
     search: SearchSpec
+    tolerance: ToleranceSpec | None = None
     member: Annotated[list[MemberSpec], Field(min_length=1)]
 
     @field_validator("name")
@@ -141,6 +176,20 @@ def parse_sweep(raw: dict, where: str, base_dir: Path, text: str = "",
     except ValidationError as exc:
         line = validation_problems(exc, where, "sweep")[0]
         raise InputError(line.replace("[sweep] ", "")) from None
+    if spec.tolerance is not None:
+        t = spec.tolerance
+        for var in _SPREAD_VARIABLES:
+            unit = "" if var == "relative_permittivity" else "_m"
+            if getattr(t, f"{var}_sd{unit}") > 0 and getattr(t, f"{var}_band{unit}") > 0:
+                raise InputError(f"{where}: tolerance.{var}_band{unit}: give either "
+                                 f"{var}_sd{unit} or {var}_band{unit}, not both")
+    for m in spec.member:
+        if m.min_impedance_yield is not None and spec.tolerance is None:
+            raise InputError(f"{where}: member {m.name!r} min_impedance_yield = "
+                             f"{m.min_impedance_yield!r}: needs a [tolerance] table")
+    if "impedance_yield" in spec.search.objectives and spec.tolerance is None:
+        raise InputError(f"{where}: search.objectives: 'impedance_yield' needs a [tolerance] "
+                         "table")
     names = [m.name for m in spec.member]
     dup = sorted({n for n in names if names.count(n) > 1})
     if dup:

@@ -30,11 +30,14 @@ for _var in ("OMP_NUM_THREADS", "OPENBLAS_NUM_THREADS", "MKL_NUM_THREADS",
     os.environ[_var] = "1"
 
 import argparse  # noqa: E402
+import cProfile  # noqa: E402
 import json  # noqa: E402
 import platform  # noqa: E402
+import pstats  # noqa: E402
 import statistics  # noqa: E402
 import tempfile  # noqa: E402
 import time  # noqa: E402
+from pathlib import Path  # noqa: E402
 
 import numpy as np  # noqa: E402
 import pymoo  # noqa: E402
@@ -45,7 +48,8 @@ from scipy.constants import mu_0, speed_of_light  # noqa: E402
 from optimizer.materials import read_toml  # noqa: E402
 from optimizer.objectives import objective_matrix  # noqa: E402
 from optimizer.problem import MemberProblem  # noqa: E402
-from optimizer.search import _RecordingProblem, make_algorithm, task_seed  # noqa: E402
+from optimizer.search import (_RecordingProblem, make_algorithm, run_task,  # noqa: E402
+                              task_seed)
 from optimizer.sweep import RUN_FILE, run_sweep  # noqa: E402
 from optimizer.sweep_spec import demo_sweep_path, load_sweep, parse_sweep  # noqa: E402
 
@@ -84,6 +88,14 @@ def demo_sweep_timing(repeats):
 
 
 # --------------------------------------------------------------------------- part 2
+
+
+def _label(file_name, line, name):
+    parts = Path(file_name).parts
+    for top in ("physics", "optimizer", "pymoo"):
+        if top in parts:
+            return "/".join(parts[len(parts) - parts[::-1].index(top) - 1:]) + f":{line}({name})"
+    return f"{Path(file_name).name}:{name}" if file_name != "~" else name
 
 
 def fixed_material_sweep():
@@ -165,6 +177,7 @@ def main(argv=None):
     parser.add_argument("--band-widening", type=float, default=1.3,
                         help="grid ratio band as a multiple of the impedance tolerance")
     parser.add_argument("--chunk", type=int, default=50_000)
+    parser.add_argument("--profile-top", type=int, default=12)
     args = parser.parse_args(argv)
     if args.repeats < 1 or args.seeds < 1:
         parser.error("--repeats and --seeds must be >= 1")
@@ -197,6 +210,27 @@ def main(argv=None):
         "pymoo_share": share["pymoo_s"], "output_share": share["output_s"],
         "physics_share_of_search": med["physics_s"] / med["task_s"],
         "evaluations_per_s": med["evaluations"] / wall})
+
+    # where the time of one search task goes (cProfile, functions with the most own time)
+    demo = load_sweep(demo_sweep_path())
+    m0, c0 = demo.spec.member[0], demo.catalogs[0].name
+    prof = cProfile.Profile()
+    t0 = time.perf_counter()
+    prof.enable()
+    run_task(demo, m0, c0, task_seed(demo.spec.seed, m0.name, c0),
+             demo.spec.search.generations, demo.spec.search.population)
+    prof.disable()
+    total = time.perf_counter() - t0
+    stats = pstats.Stats(prof).stats
+    rows = sorted(((tt, ct, nc, _label(*key)) for key, (_, nc, tt, ct, _) in stats.items()),
+                  reverse=True)[:args.profile_top]
+    print(f"  one task under cProfile ({m0.name} x {c0}, {total:.2f} s), own time:")
+    for tt, ct, nc, label in rows:
+        print(f"    {100 * tt / total:5.1f} %  own {tt:6.3f} s  cum {ct:6.3f} s  x{nc:<6d} {label}")
+    te11 = sum(ct for key, (_, _, _, ct, _) in stats.items() if key[2] == "te11_cutoff_frequency")
+    results["task_profile_te11_share"] = te11 / total
+    print(f"    exact TE11 cutoff (physics.modes.te11_cutoff_frequency, cumulative): "
+          f"{100 * te11 / total:.1f} % of the task")
 
     # part 2 ----------------------------------------------------------------------------------
     sweep = fixed_material_sweep()
