@@ -23,6 +23,7 @@ def atomic_path(path):
         yield Path(tmp)
         with open(tmp, "rb+") as fh:
             os.fsync(fh.fileno())
+        os.chmod(tmp, 0o666 & ~_umask())  # mkstemp makes 0600; give the usual file mode
         os.replace(tmp, path)
     except BaseException:
         with contextlib.suppress(FileNotFoundError):
@@ -34,6 +35,12 @@ def atomic_path(path):
             os.fsync(dir_fd)
         finally:
             os.close(dir_fd)
+
+
+def _umask() -> int:
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask
 
 
 def write_text_atomic(path, text):

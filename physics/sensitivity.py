@@ -87,8 +87,8 @@ def _geometry(a, b, offset):
         i = np.flatnonzero(bad.ravel())[0]
         raise ValueError(
             f"{np.count_nonzero(bad)} design(s) outside 0 < a < b and 0 <= |offset| < b - a, "
-            f"e.g. a = {a.ravel()[i]!r} m, b = {b.ravel()[i]!r} m, "
-            f"offset = {d.ravel()[i]!r} m")
+            f"e.g. a = {float(a.ravel()[i]):.6g} m, b = {float(b.ravel()[i]):.6g} m, "
+            f"offset = {float(d.ravel()[i]):.6g} m")
     return a, b, d
 
 
@@ -96,7 +96,7 @@ def _permittivity(relative_permittivity):
     eps = np.asarray(relative_permittivity, dtype=float)
     bad = ~(eps > 0.0)
     if bad.any():
-        raise ValueError(f"relative_permittivity must be > 0, got {eps[bad].ravel()[0]!r}")
+        raise ValueError(f"relative_permittivity must be > 0, got {float(eps[bad].ravel()[0]):.6g}")
     return eps
 
 

@@ -275,12 +275,13 @@ def main(argv=None):
     print(f"bench_physics: {n:,} designs, f = {f:.4g} Hz, median of {reps} ({full_reps} for (5)), "
           f"1 thread "
           f"(python {platform.python_version()}, numpy {np.__version__}, scipy "
-          f"{scipy.__version__}, {platform.machine()})")
+          f"{scipy.__version__}, {platform.machine()}; load average {os.getloadavg()[0]:.2f}, "
+          "other processes on the machine skew the figures)")
     d = sample_designs(n, args.seed)
     arrays = em_arrays(d)
     op = OperatingPoint(frequency_hz=f, power_w=args.power, ambient_c=args.ambient)
     results = {"frequency_hz": f, "designs": n, "repeats": reps, "full_repeats": full_reps,
-               "seed": args.seed}
+               "seed": args.seed, "load_average_1min_at_start": os.getloadavg()[0]}
 
     # skin-depth regime of the population (the auto path switches at a/delta = 12)
     from physics.internal_impedance import ASYMPTOTIC_MIN_RATIO

@@ -183,7 +183,8 @@ def main(argv=None):
         parser.error("--repeats and --seeds must be >= 1")
     results = {}
     print(f"bench_sweep (python {platform.python_version()}, numpy {np.__version__}, pymoo "
-          f"{pymoo.__version__}, 1 thread)")
+          f"{pymoo.__version__}, 1 thread; load average {os.getloadavg()[0]:.2f})")
+    results["load_average_1min_at_start"] = os.getloadavg()[0]
 
     # part 1 ----------------------------------------------------------------------------------
     runs = demo_sweep_timing(args.repeats)

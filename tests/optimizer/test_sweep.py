@@ -322,7 +322,8 @@ def test_same_seed_gives_byte_identical_front(small_demo_run, tmp_path):
 def test_demo_with_another_seed_differs_with_similar_hypervolume(tmp_path):
     """The demo at its own budget (60 x 60), seeds 7 and 8, per member x catalog."""
     sweep = load_sweep(demo_sweep_path())
-    dfs = [read_front(run_sweep(sweep, tmp_path / f"seed-{s}", seed=s)) for s in (7, 8)]
+    dfs = [read_front(run_sweep(sweep, tmp_path / f"seed-{s}", seed=s, generations=60,
+                                population=60)) for s in (7, 8)]
     objectives = sweep.spec.search.objectives
     report = []
     for key, rows_7 in dfs[0].groupby(["member", "catalog"]):

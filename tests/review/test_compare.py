@@ -6,6 +6,7 @@ from pymoo.indicators.hv import HV
 
 from optimizer.compare import REFERENCE_FACTOR, compare_runs, comparison_to_json
 from optimizer.errors import InputError
+from optimizer.sweep import FRONT_FILE, read_provenance
 
 from .conftest import copy_run_with_provenance, synthetic_run
 
@@ -66,8 +67,9 @@ def test_one_front_holding_everything_is_called_dominant(tmp_path):
 
 
 def test_compare_across_runs_and_json(tiny_run, tiny_run_b):
-    c = compare_runs([tiny_run, tiny_run_b], member="mast-feeder-50")
-    assert [m.member for m in c.members] == ["mast-feeder-50"]
+    name = read_provenance(tiny_run / FRONT_FILE)["members"][0]["name"]
+    c = compare_runs([tiny_run, tiny_run_b], member=name)
+    assert [m.member for m in c.members] == [name]
     labels = c.members[0].labels
     assert len(labels) == 4 and all("/" in lab for lab in labels)
     obj = comparison_to_json(c)
@@ -91,7 +93,8 @@ def test_refuses_different_operating_point(tiny_run, tmp_path):
     with pytest.raises(InputError) as info:
         compare_runs([tiny_run, other])
     message = str(info.value)
-    assert "frequency_hz" in message and "mast-feeder-50" in message and "\n" not in message
+    name = read_provenance(tiny_run / FRONT_FILE)["members"][0]["name"]
+    assert "frequency_hz" in message and name in message and "\n" not in message
 
 
 def test_unknown_member_and_repeated_run(tiny_run):
