@@ -45,6 +45,8 @@ def front_row_design_toml(run_dir, member: str, index: int, catalog: str | None 
              f"name = {_toml_value(member + '-' + row['catalog'] + '-' + str(index))}", "",
              "[geometry]"]
     lines += [f"{k} = {_toml_value(float(row[k]))}" for k in GEOMETRY_KEYS]
+    if int(row.get("inner_strands", 1)) != 1:
+        lines.append(f"inner_strands = {int(row['inner_strands'])}")
     for table, (kind, _) in MATERIAL_TABLES.items():
         mid = row[table]
         if not mid:

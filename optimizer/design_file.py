@@ -5,7 +5,8 @@ Keys (a contract: add freely, rename none)::
     name = "..."                      # optional
     catalog = "catalogs/baseline.toml"   # optional, relative to this file
     [geometry]   inner_radius_m, dielectric_radius_m, shield_thickness_m, jacket_thickness_m,
-                 eccentricity_m (offset of the centre conductor, default 0)
+                 eccentricity_m (offset of the centre conductor, default 0),
+                 inner_strands (1, 7, 19 or 37; inner_radius_m is then the overall radius)
     [conductor]  id = "copper"  or  resistivity_ohm_m, temperature_coefficient_per_k, ...
     [shield]     same keys as [conductor]
     [dielectric] id or relative_permittivity, loss_tangent, dielectric_strength_v_per_m, ...
@@ -21,7 +22,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Annotated
+from typing import Annotated, Literal
 
 import numpy as np
 from pydantic import Field
@@ -50,6 +51,7 @@ class Geometry(Record):
     shield_thickness_m: Annotated[float, Field(gt=0, lt=1.0)]
     jacket_thickness_m: Annotated[float, Field(ge=0, lt=1.0)] = 0.0
     eccentricity_m: Annotated[float, Field(ge=0, lt=1.0)] = 0.0
+    inner_strands: Literal[1, 7, 19, 37] = 1
 
 
 class Operating(Record):
@@ -163,7 +165,7 @@ def design_arrays(design: Design):
         jacket_thickness=np.array([g.jacket_thickness_m]),
         inner=table(design.conductor), shield=table(design.shield),
         dielectric=table(design.dielectric), jacket=table(design.jacket),
-        eccentricity=np.array([g.eccentricity_m]))
+        eccentricity=np.array([g.eccentricity_m]), inner_strands=np.array([g.inner_strands]))
     o = design.operating
     op = OperatingPoint(frequency_hz=o.frequency_hz, peak_voltage_v=o.peak_voltage_v,
                         current_a=o.current_a, field_safety_factor=o.field_safety_factor,

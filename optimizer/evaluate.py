@@ -11,7 +11,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from physics import fields, line, mass, modes, thermal
+from physics import fields, line, mass, modes, stranding, thermal
 from physics.eccentricity import geometry_factor, peak_field_factor
 from physics.skin import skin_depth
 from physics.units import neper_per_m_to_db_per_100m, per_m_to_per_km
@@ -35,6 +35,8 @@ class Designs:
     jacket: dict[str, np.ndarray] | None
     eccentricity: np.ndarray | float = 0.0
     """Offset of the centre conductor from the axis [m] (0: concentric)."""
+    inner_strands: np.ndarray | int = 1
+    """Strand count of the centre conductor (1: solid); ``inner_radius`` is then overall."""
 
     @property
     def shield_radius(self):
@@ -76,8 +78,15 @@ def electromagnetic(d: Designs, op: OperatingPoint, method="auto") -> dict[str, 
                               d.dielectric["relative_permittivity"], d.dielectric["loss_tangent"],
                               d.inner.get("relative_permeability", 1.0),
                               d.shield.get("relative_permeability", 1.0), method=method,
-                              offset=d.eccentricity)
+                              offset=d.eccentricity, inner_strands=d.inner_strands)
     return _line_quantities(d, op, lp)
+
+
+def electrical_inner_radius(d: Designs):
+    """The radius the fields see: the overall one, or the effective one of a strand lay-up."""
+    if np.any(np.asarray(d.inner_strands) != 1):
+        return stranding.stranded_effective_radius(d.inner_radius, d.inner_strands)
+    return d.inner_radius
 
 
 def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
@@ -85,8 +94,8 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
     f = op.frequency_hz
     gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
     z0 = gamma / (lp.g + 2j * np.pi * f * lp.c)
-    z0_lossless = line.characteristic_impedance_lossless(a, b, d.dielectric["relative_permittivity"],
-                                                         d.eccentricity)
+    z0_lossless = line.characteristic_impedance_lossless(
+        electrical_inner_radius(d), b, d.dielectric["relative_permittivity"], d.eccentricity)
     alpha_c, alpha_d = line.attenuation_split(gamma.real, lp.r, lp.g, z0_lossless)
     out = {
         "z0_ohm": np.abs(z0),
@@ -106,7 +115,8 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
                                          d.inner.get("relative_permeability", 1.0)),
         "skin_depth_shield_m": skin_depth(d.shield["resistivity_ohm_m"], f,
                                           d.shield.get("relative_permeability", 1.0)),
-        "dc_resistance_inner_ohm_per_m": d.inner["resistivity_ohm_m"] / (np.pi * a * a),
+        "dc_resistance_inner_ohm_per_m": stranding.stranded_dc_resistance(
+            a, d.inner_strands, d.inner["resistivity_ohm_m"]),
         "dc_resistance_shield_ohm_per_m": d.shield["resistivity_ohm_m"] / (np.pi * (c * c - b * b)),
     }
     return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
@@ -125,29 +135,37 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
     c, rd = d.shield_radius, d.outer_radius
     diel = d.dielectric
     out = electromagnetic(d, op, method)
+    a_el = electrical_inner_radius(d)
     out["outer_diameter_m"] = mass.outer_diameter(rd) + 0.0 * a
-    out["te11_cutoff_hz"] = modes.te11_cutoff_frequency(a, b, diel["relative_permittivity"])
+    out["te11_cutoff_hz"] = modes.te11_cutoff_frequency(a_el, b, diel["relative_permittivity"])
     out["te11_cutoff_approx_hz"] = modes.te11_cutoff_frequency_approx(
-        a, b, diel["relative_permittivity"])
+        a_el, b, diel["relative_permittivity"])
     # an offset centre conductor: arccosh geometry factor and the field crowding on its near side
-    lam = geometry_factor(a, b, d.eccentricity)
-    crowding = peak_field_factor(a, b, d.eccentricity)
+    # (stranded: the smooth conductor of the effective radius; crowns of strands not modelled)
+    lam = geometry_factor(a_el, b, d.eccentricity)
+    crowding = peak_field_factor(a_el, b, d.eccentricity)
     if op.peak_voltage_v is not None:
-        out["peak_e_field_v_per_m"] = fields.peak_electric_field(a, b, op.peak_voltage_v) * (
-            np.log(b / a) / lam * crowding)
+        out["peak_e_field_v_per_m"] = fields.peak_electric_field(a_el, b, op.peak_voltage_v) * (
+            np.log(b / a_el) / lam * crowding)
     if "dielectric_strength_v_per_m" in diel:
         out["max_peak_voltage_v"] = fields.max_peak_voltage(
-            a, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor) * (
-            lam / np.log(b / a) / crowding)
-    out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(mass.dc_loop_resistance(
-        a, b, c, d.inner["resistivity_ohm_m"], d.shield["resistivity_ohm_m"]))
+            a_el, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor) * (
+            lam / np.log(b / a_el) / crowding)
+    out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(
+        out["dc_resistance_inner_ohm_per_m"] + out["dc_resistance_shield_ohm_per_m"])
 
     no_jacket = bool(np.all(d.jacket_thickness == 0.0))
     jacket = d.jacket if d.jacket is not None else ({} if no_jacket else None)
     densities = ("density_kg_per_m3",)
     if _has(d.inner, *densities) and _has(d.shield, *densities) and _has(diel, *densities) and (
             no_jacket or _has(jacket, *densities)):
-        masses = mass.layer_masses(a, b, c, rd, d.inner["density_kg_per_m3"],
+        # a stranded conductor holds less metal than its overall circle (the voids are
+        # taken as dielectric-free; their small share of dielectric mass is not counted)
+        metal_share = 1.0
+        if np.any(np.asarray(d.inner_strands) != 1):
+            lay = stranding.strand_layup(d.inner_strands)
+            metal_share = lay.area_ratio * stranding.lay_take_up_factor(d.inner_strands)
+        masses = mass.layer_masses(a, b, c, rd, d.inner["density_kg_per_m3"] * metal_share,
                                    diel["density_kg_per_m3"], d.shield["density_kg_per_m3"],
                                    jacket.get("density_kg_per_m3", 0.0))
         out["mass_kg_per_km"] = per_m_to_per_km(masses.total)
@@ -175,6 +193,7 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
         jacket_thermal_resistivity=jacket.get("thermal_resistivity_k_m_per_w", 1.0),
         inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
         shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
+        offset=d.eccentricity, inner_strands=d.inner_strands,
     )
     if op.power_w is not None:
         state = thermal.coax_thermal_state(power=op.power_w, **common)
@@ -195,7 +214,8 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
             shield={**d.shield, "resistivity_ohm_m": thermal.resistivity_at_temperature(
                 d.shield["resistivity_ohm_m"], d.shield["temperature_coefficient_per_k"],
                 np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
-            dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity)
+            dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
+            inner_strands=d.inner_strands)
         hot_em = electromagnetic(hot, op, method)
         for key in ("skin_depth_inner_m", "skin_depth_shield_m", "dc_resistance_inner_ohm_per_m",
                     "dc_resistance_shield_ohm_per_m"):

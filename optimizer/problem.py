@@ -18,11 +18,13 @@ from scipy.constants import mu_0, speed_of_light
 
 from optimizer.constraints import (CONSTRAINTS, MIN_RADIUS_RATIO, NON_FINITE_MARGIN,
                                    constraint_margins)
-from optimizer.evaluate import Designs, OperatingPoint, evaluate
+from optimizer.evaluate import Designs, OperatingPoint, electrical_inner_radius, evaluate
 from optimizer.objectives import OBJECTIVES, objective_matrix
 from optimizer.sweep_spec import GEOMETRY_KEYS, MemberSpec, Sweep
 from optimizer.tolerance import (common_draws, impedance_yield_analytic,
                                  impedance_yield_monte_carlo)
+from optimizer.wire_size_table import standard_diameters
+from physics.wire_sizes import snap_to_sizes
 
 MATERIAL_TABLES = ("conductor", "shield", "dielectric", "jacket")
 _CATALOG_KIND = {"conductor": "conductor", "shield": "conductor", "dielectric": "dielectric",
@@ -37,6 +39,8 @@ class Layout:
     free_geometry: tuple[str, ...]
     material_ids: dict[str, tuple[str, ...]]
     free_materials: tuple[str, ...]
+    inner_radius_sizes: np.ndarray | None = None
+    """Standard radii the centre conductor snaps to (None: continuous)."""
 
     @property
     def n_var(self):
@@ -66,6 +70,9 @@ class Layout:
                 col += 1
             else:
                 geometry[key] = np.full(n, self.bounds[key][0])
+        if self.inner_radius_sizes is not None:
+            geometry["inner_radius_m"] = 0.5 * snap_to_sizes(2.0 * geometry["inner_radius_m"],
+                                                             2.0 * self.inner_radius_sizes)
         indices = {}
         for table in MATERIAL_TABLES:
             if table in self.free_materials:
@@ -83,8 +90,13 @@ def make_layout(sweep: Sweep, catalog_name: str) -> Layout:
     free_geometry = tuple(k for k in GEOMETRY_KEYS if bounds[k][1] > bounds[k][0])
     ids = sweep.materials[catalog_name]
     free_materials = tuple(t for t in MATERIAL_TABLES if len(ids.get(t, ())) > 1)
+    sizes = None
+    if s.inner_diameter_series is not None:
+        radii = 0.5 * standard_diameters(s.inner_diameter_series)
+        lo, hi = bounds["inner_radius_m"]
+        sizes = radii[(radii >= lo) & (radii <= hi)]
     return Layout(bounds=bounds, free_geometry=free_geometry, material_ids=dict(ids),
-                  free_materials=free_materials)
+                  free_materials=free_materials, inner_radius_sizes=sizes)
 
 
 class CategoricalRounding(Repair):
@@ -190,12 +202,14 @@ class MemberProblem(Problem):
             t = self._tables[table]
             return None if t is None else {k: v[idx[table]] for k, v in t.items()}
 
+        strands = self.sweep.spec.search.inner_strands
         computed = Designs(a, b_safe, geometry["shield_thickness_m"],
                            geometry["jacket_thickness_m"], inner=pick("conductor"),
                            shield=pick("shield"), dielectric=pick("dielectric"),
-                           jacket=pick("jacket"))
+                           jacket=pick("jacket"), inner_strands=strands)
         actual = Designs(a, b, computed.shield_thickness, computed.jacket_thickness,
-                         computed.inner, computed.shield, computed.dielectric, computed.jacket)
+                         computed.inner, computed.shield, computed.dielectric, computed.jacket,
+                         inner_strands=strands)
         return computed, actual, idx
 
     def operating_point(self):
@@ -222,13 +236,14 @@ class MemberProblem(Problem):
         m = self.member
         scale = values["z0_ohm"] / values["z0_lossless_ohm"]
         eps = d.dielectric["relative_permittivity"]
+        a = electrical_inner_radius(d)
         if self.draws is not None:
             y, lo, hi = impedance_yield_monte_carlo(
-                d.inner_radius, d.dielectric_radius, eps, m.impedance_ohm,
+                a, d.dielectric_radius, eps, m.impedance_ohm,
                 m.impedance_tolerance_ohm, self.spread, self.draws, scale)
         else:
             y, lo, hi = impedance_yield_analytic(
-                d.inner_radius, d.dielectric_radius, eps, m.impedance_ohm,
+                a, d.dielectric_radius, eps, m.impedance_ohm,
                 m.impedance_tolerance_ohm, self.spread, scale)
         return {"impedance_yield": y, "z0_3sigma_low_ohm": lo, "z0_3sigma_high_ohm": hi}
 

@@ -76,6 +76,7 @@ def front_frame(problem: MemberProblem, x: np.ndarray) -> pd.DataFrame:
         cols[table] = [ids[i] for i in idx[table]] if ids else [""] * n
     for key in GEOMETRY_KEYS:
         cols[key] = geometry[key]
+    cols["inner_strands"] = np.full(n, problem.sweep.spec.search.inner_strands, dtype=np.int64)
     for key in MEMBER_COLUMNS:
         v = getattr(problem.member, key)
         cols[key] = np.full(n, np.nan if v is None else float(v))

@@ -50,6 +50,8 @@ class SearchSpec(Record):
     dielectric_radius_m: Bounds
     shield_thickness_m: Bounds
     jacket_thickness_m: Bounds = [0.0, 0.0]
+    inner_strands: Literal[1, 7, 19, 37] = 1
+    inner_diameter_series: Literal["metric", "metric-fine", "awg"] | None = None
     conductors: list[str] | None = None
     shields: list[str] | None = None
     dielectrics: list[str] | None = None

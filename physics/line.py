@@ -14,6 +14,8 @@ from scipy.constants import epsilon_0, mu_0, speed_of_light
 
 from physics.eccentricity import geometry_factor, wheeler_loss_factors
 from physics.internal_impedance import tube_internal_impedance, wire_internal_impedance
+from physics.stranding import (stranded_dc_resistance, stranded_effective_radius,
+                               stranded_skin_effect_factor)
 
 
 class LineParameters(NamedTuple):
@@ -80,7 +82,8 @@ def conductance(capacitance_f_per_m, frequency, loss_tangent):
 
 def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                     relative_permittivity, loss_tangent, inner_relative_permeability=1.0,
-                    shield_relative_permeability=1.0, method="auto", offset=0.0):
+                    shield_relative_permeability=1.0, method="auto", offset=0.0,
+                    inner_strands=1):
     r"""R, L, G, C of a coax at frequency :math:`f`, with exact conductor internal impedance.
 
     Parameters
@@ -101,6 +104,12 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
         Eccentricity of the centre conductor [m]: external L and C from the arccosh form,
         internal impedances times Wheeler's per-conductor factors
         (:func:`physics.eccentricity.wheeler_loss_factors`; skin-effect regime).
+    inner_strands : array_like of int, optional
+        Strand count of the centre conductor (1, 7, 19, 37; ``a`` is then its overall
+        radius): external L and C use the effective radius of
+        :func:`physics.stranding.stranded_effective_radius`; the internal impedance is that of
+        a solid wire of the overall radius times the stranding skin-effect factor, its
+        resistance never below the DC resistance of the strands.
 
     Returns
     -------
@@ -129,14 +138,20 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                                       inner_relative_permeability, method=method)
     z_shield = tube_internal_impedance(b, c, shield_resistivity, frequency,
                                        shield_relative_permeability, method=method)
+    a_ext = a
+    if np.any(np.asarray(inner_strands) != 1):
+        a_ext = stranded_effective_radius(a, inner_strands)
+        r_dc = stranded_dc_resistance(a, inner_strands, inner_resistivity)
+        z_inner = z_inner * stranded_skin_effect_factor(inner_strands)
+        z_inner = np.maximum(z_inner.real, r_dc) + 1j * z_inner.imag
     if np.any(offset):
-        f_inner, f_shield = wheeler_loss_factors(a, b, offset)
+        f_inner, f_shield = wheeler_loss_factors(a_ext, b, offset)
         z_inner = z_inner * f_inner
         z_shield = z_shield * f_shield
-    cap = capacitance(a, b, relative_permittivity, offset)
+    cap = capacitance(a_ext, b, relative_permittivity, offset)
     r_inner = z_inner.real
     r_shield = z_shield.real
-    ind = inductance_external(a, b, offset) + (z_inner.imag + z_shield.imag) / omega
+    ind = inductance_external(a_ext, b, offset) + (z_inner.imag + z_shield.imag) / omega
     g = conductance(cap, frequency, loss_tangent)
     return LineParameters(r=r_inner + r_shield, l=ind, g=g, c=cap,
                           r_inner=r_inner, r_shield=r_shield)

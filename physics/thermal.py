@@ -376,18 +376,21 @@ def _prepare(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
              inner_temperature_coefficient, shield_resistivity_20c,
              shield_temperature_coefficient, relative_permittivity, loss_tangent,
              dielectric_thermal_resistivity, jacket_thermal_resistivity,
-             inner_relative_permeability, shield_relative_permeability, *extra):
+             inner_relative_permeability, shield_relative_permeability, offset, inner_strands,
+             *extra):
     """Broadcast, flatten and check the common inputs; return (shape, dict of 1-D arrays)."""
     names = ("a", "b", "c", "d", "frequency", "ambient_c", "inner_resistivity_20c",
              "inner_temperature_coefficient", "shield_resistivity_20c",
              "shield_temperature_coefficient", "relative_permittivity", "loss_tangent",
              "dielectric_thermal_resistivity", "jacket_thermal_resistivity",
-             "inner_relative_permeability", "shield_relative_permeability")
+             "inner_relative_permeability", "shield_relative_permeability", "offset",
+             "inner_strands")
     values = (a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
               inner_temperature_coefficient, shield_resistivity_20c,
               shield_temperature_coefficient, relative_permittivity, loss_tangent,
               dielectric_thermal_resistivity, jacket_thermal_resistivity,
-              inner_relative_permeability, shield_relative_permeability) + extra
+              inner_relative_permeability, shield_relative_permeability, offset,
+              inner_strands) + extra
     arrays = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in values))
     shape = arrays[0].shape
     flat = [np.array(x, dtype=float).ravel() for x in arrays]
@@ -461,7 +464,8 @@ def _solve_flat(p, power, tolerance_k, max_iterations, runaway_temperature_c):
             resistivity_at_temperature(p["shield_resistivity_20c"][i],
                                        p["shield_temperature_coefficient"][i], theta_s[i]),
             p["relative_permittivity"][i], p["loss_tangent"][i],
-            p["inner_relative_permeability"][i], p["shield_relative_permeability"][i])
+            p["inner_relative_permeability"][i], p["shield_relative_permeability"][i],
+            offset=p["offset"][i], inner_strands=p["inner_strands"][i].astype(int))
         z0 = np.abs(characteristic_impedance(lp.r, lp.l, lp.g, lp.c, p["frequency"][i]))
         current_sq = power[i] / z0
         wi = current_sq * lp.r_inner
@@ -500,6 +504,7 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
                        shield_temperature_coefficient, relative_permittivity, loss_tangent,
                        dielectric_thermal_resistivity, jacket_thermal_resistivity,
                        inner_relative_permeability=1.0, shield_relative_permeability=1.0,
+                       offset=0.0, inner_strands=1,
                        tolerance_k=1e-4, max_iterations=100,
                        runaway_temperature_c=RUNAWAY_TEMPERATURE_C):
     r"""Steady temperatures of a matched coax in free air carrying CW power.
@@ -526,6 +531,9 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
     jacket_thermal_resistivity : array_like
         Thermal resistivity of the jacket [K m W^-1]; not used (any value, NaN too) where
         ``d == c``.
+    offset, inner_strands : array_like, optional
+        Eccentricity [m] and strand count of the centre conductor, passed to
+        :func:`physics.line.line_parameters` (defaults: concentric, solid).
     inner_relative_permeability, shield_relative_permeability : array_like, optional
         Relative permeabilities of the conductors [-].
     tolerance_k : float, optional
@@ -590,7 +598,7 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
         a, b, c, d, frequency, ambient_c, inner_resistivity_20c, inner_temperature_coefficient,
         shield_resistivity_20c, shield_temperature_coefficient, relative_permittivity,
         loss_tangent, dielectric_thermal_resistivity, jacket_thermal_resistivity,
-        inner_relative_permeability, shield_relative_permeability, power)
+        inner_relative_permeability, shield_relative_permeability, offset, inner_strands, power)
     _check(np.isfinite(power_flat) & (power_flat >= 0.0), "power", "finite and >= 0",
            power_flat)
     fields = _solve_flat(p, power_flat, tolerance_k, max_iterations, runaway_temperature_c)
@@ -606,6 +614,7 @@ def max_power(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
               dielectric_thermal_resistivity, jacket_thermal_resistivity,
               dielectric_max_temperature_c, jacket_max_temperature_c=None,
               inner_relative_permeability=1.0, shield_relative_permeability=1.0,
+              offset=0.0, inner_strands=1,
               tolerance_k=1e-4, max_iterations=100):
     r"""Maximum CW power of a matched coax in free air (thermal rating).
 
@@ -627,6 +636,9 @@ def max_power(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
     jacket_max_temperature_c : array_like or None, optional
         Highest temperature allowed at the jacket's inner surface, i.e. the shield [degC].
         ``None``: no jacket limit. Ignored where ``d == c`` (no jacket).
+    offset, inner_strands : array_like, optional
+        Eccentricity [m] and strand count of the centre conductor, passed to
+        :func:`physics.line.line_parameters` (defaults: concentric, solid).
     inner_relative_permeability, shield_relative_permeability : array_like, optional
         As in :func:`coax_thermal_state` [-].
     tolerance_k, max_iterations : optional
@@ -676,7 +688,7 @@ def max_power(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
         a, b, c, d, frequency, ambient_c, inner_resistivity_20c, inner_temperature_coefficient,
         shield_resistivity_20c, shield_temperature_coefficient, relative_permittivity,
         loss_tangent, dielectric_thermal_resistivity, jacket_thermal_resistivity,
-        inner_relative_permeability, shield_relative_permeability,
+        inner_relative_permeability, shield_relative_permeability, offset, inner_strands,
         dielectric_max_temperature_c, jacket_limit)
     _check(np.isfinite(diel_max), "dielectric_max_temperature_c", "finite", diel_max)
     _check(~np.isnan(jac_max), "jacket_max_temperature_c", "not NaN (use None for no limit)",

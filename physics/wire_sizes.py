@@ -6,7 +6,7 @@ The American Wire Gauge is a geometric series defined by two anchors, gauge 36 =
 .. math:: d(n) = 0.127\,\mathrm{mm} \times 92^{(36 - n)/39}
 
 where the gauges 0000, 000, 00 and 0 carry the numbers :math:`n = -3, -2, -1, 0` [1]_. The
-metric diameters live in ``catalogs/wire-sizes.toml`` (a data file, read at the edge by the
+metric diameters live in ``catalogs/wire-sizes/standard-sizes.toml`` (a data file, read at the edge by the
 caller; nothing here does I/O).
 
 References
@@ -91,8 +91,8 @@ def awg_diameter(gauge):
     Returns
     -------
     numpy.ndarray
-        :math:`d(n)` [m], the unrounded value of the defining formula (ASTM B258 tabulates
-        it rounded to 0.0001 in).
+        :math:`d(n)` [m], the unrounded value of the defining formula (published tables give
+        it rounded).
 
     Raises
     ------

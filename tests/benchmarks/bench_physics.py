@@ -11,7 +11,7 @@ Measures, at one frequency, designs per second of
    given, ``include_max_power=False``), and ``physics.thermal.max_power`` on a smaller set;
 
 plus the largest relative difference between the paths, and a profile of where the time goes.
-Every figure is the median of ``--repeats`` (``--full-repeats`` for 5) runs in one process
+Every figure is the median of ``--repeats`` (``--full-repeats`` for 2 and 5) runs in one process
 with one thread. The last line printed is one JSON object with the figures.
 
 Run from the repository root::
@@ -262,9 +262,9 @@ def main(argv=None):
     parser.add_argument("--power", type=float, default=50.0, help="CW power of the full "
                         "evaluation [W]")
     parser.add_argument("--ambient", type=float, default=25.0, help="ambient [degC]")
-    parser.add_argument("--repeats", type=int, default=5, help="runs of the EM paths (1)-(4)")
-    parser.add_argument("--full-repeats", type=int, default=3, help="runs of the full "
-                        "evaluation and of max_power (5)")
+    parser.add_argument("--repeats", type=int, default=5, help="runs of the paths (1), (3), (4)")
+    parser.add_argument("--full-repeats", type=int, default=3, help="runs of the exact path (2), "
+                        "the full evaluation and max_power (5)")
     parser.add_argument("--seed", type=int, default=20240601)
     parser.add_argument("--no-profile", action="store_true", help="skip the cProfile sections")
     args = parser.parse_args(argv)
@@ -272,8 +272,8 @@ def main(argv=None):
         parser.error("--repeats and --full-repeats must be >= 3 (figures are medians)")
     f, n, reps, full_reps = args.frequency, args.designs, args.repeats, args.full_repeats
 
-    print(f"bench_physics: {n:,} designs, f = {f:.4g} Hz, median of {reps} ({full_reps} for (5)), "
-          f"1 thread "
+    print(f"bench_physics: {n:,} designs, f = {f:.4g} Hz, median of {reps} ({full_reps} for "
+          f"(2) and (5)), 1 thread "
           f"(python {platform.python_version()}, numpy {np.__version__}, scipy "
           f"{scipy.__version__}, {platform.machine()}; load average {os.getloadavg()[0]:.2f}, "
           "other processes on the machine skew the figures)")
@@ -299,7 +299,7 @@ def main(argv=None):
     # (1) vectorized, (2) exact; one untimed call first (first-touch of the result memory)
     em_path(*arrays, f, "auto")
     t_vec, all_vec, vec = timed(lambda: em_path(*arrays, f, "auto"), reps)
-    t_ex, all_ex, exact = timed(lambda: em_path(*arrays, f, "exact"), reps)
+    t_ex, all_ex, exact = timed(lambda: em_path(*arrays, f, "exact"), full_reps)
     diff, bad = max_rel_diff(vec, exact)
     results["vectorized_designs_per_s"] = n / t_vec
     results["exact_designs_per_s"] = n / t_ex
@@ -367,22 +367,23 @@ def main(argv=None):
     # where the time goes
     if not args.no_profile:
         print("where the time goes:")
+        k_prof = min(n, 100_000)
+        d_prof = subset(d, slice(0, k_prof))
         # per-pass count of the thermal fixed point (each pass is one line_parameters call)
         state = thermal.coax_thermal_state(
-            power=args.power, **{key: v for key, v in max_power_inputs(d, op).items()
+            power=args.power, **{key: v for key, v in max_power_inputs(d_prof, op).items()
                                  if not key.endswith("max_temperature_c")})
         it = state.iterations
         results["thermal_passes_mean"] = float(it.mean())
         results["thermal_passes_max"] = int(it.max())
-        print(f"  thermal fixed point: {it.mean():.2f} passes per design on average "
+        print(f"  thermal fixed point ({k_prof:,} designs): {it.mean():.2f} passes per design "
+              f"on average "
               f"(median {np.median(it):.0f}, max {it.max()}); line evaluations per design in "
               f"evaluate: 1 (20 degC) + {it.mean():.2f} (passes) + 1 (hot) = "
               f"{2 + it.mean():.2f}")
         del state
         total, rows, _ = profile(lambda: em_path(*arrays, f, "auto"), 12)
         print_profile("vectorized EM path", total, rows)
-        k_prof = min(n, 100_000)
-        d_prof = subset(d, slice(0, k_prof))
         total, rows, stats = profile(lambda: evaluate(d_prof, op, include_max_power=False), 12)
         print(f"  stages of evaluate() on {k_prof:,} designs ({total:.3f} s under cProfile), "
               "time inside each call made by evaluate():")

@@ -31,6 +31,7 @@ from optimizer.sweep_spec import demo_sweep_path, load_sweep
 
 CATALOG_DIR = Path(catalogs.__file__).resolve().parent
 SWEEP_NAME = "resume-small"
+MEMBERS = ("mast-feeder-50", "pier-link-50")
 #: Task folders in the order a serial run takes them (member-major).
 TASKS = ("mast-feeder-50__baseline", "mast-feeder-50__lightweight",
          "pier-link-50__baseline", "pier-link-50__lightweight")
@@ -38,22 +39,27 @@ GENERATIONS = 25
 POLL_S = 0.002
 
 
-def small_sweep_text(catalog_dir: Path = CATALOG_DIR, name: str = SWEEP_NAME) -> str:
-    """The demo sweep, cut to 2 members x 2 catalogs, population 16, 25 generations, with the
-    catalogs given as absolute paths under ``catalog_dir``."""
+def small_sweep_text(catalog_dir: Path = CATALOG_DIR, name: str = SWEEP_NAME,
+                     members: tuple[str, ...] = MEMBERS) -> str:
+    """The demo sweep's text cut down: members ``members``, the baseline and lightweight
+    catalogs as absolute paths under ``catalog_dir``, population 16, 25 generations. Everything
+    else (objectives, bounds, tolerance, member settings) stays as in the demo."""
     text = demo_sweep_path().read_text(encoding="utf-8")
+    head, *blocks = text.split("\n[[member]]\n")
+    blocks = [b for b in blocks
+              if re.search(r'(?m)^name = "([^"]+)"', b).group(1) in members]
+    assert len(blocks) == len(members), f"demo sweep lacks a member of {members}"
+    paths = ", ".join(f'"{catalog_dir / c}"' for c in ("baseline.toml", "lightweight.toml"))
     edits = [
-        (r'(?m)^name = "larkspur-harbour"$', f'name = "{name}"'),
-        (r'(?m)^catalogs = \[.*\]$',
-         f'catalogs = ["{catalog_dir / "baseline.toml"}", "{catalog_dir / "lightweight.toml"}"]'),
-        (r"(?m)^population = \d+$", "population = 16"),
-        (r"(?m)^generations = \d+$", f"generations = {GENERATIONS}"),
-        (r'(?s)\n\[\[member\]\]\nname = "monitor-75".*\Z', "\n"),
+        (r'(?m)^name = "[^"]+"$', f'name = "{name}"'),
+        (r"(?ms)^catalogs = \[.*?\]", f"catalogs = [{paths}]"),
+        (r"(?m)^population = \d+", "population = 16"),
+        (r"(?m)^generations = \d+", f"generations = {GENERATIONS}"),
     ]
     for pattern, new in edits:
-        text, n = re.subn(pattern, lambda _m, new=new: new, text)
+        head, n = re.subn(pattern, lambda _m, new=new: new, head, count=1)
         assert n == 1, f"demo sweep no longer matches {pattern!r}; update this test helper"
-    return text
+    return "\n[[member]]\n".join([head, *blocks]).rstrip() + "\n"
 
 
 @pytest.fixture(scope="module")

@@ -4,7 +4,7 @@ import numpy as np
 import pytest
 from scipy.constants import mu_0, speed_of_light
 
-from physics.eccentricity import characteristic_impedance_eccentric, geometry_factor
+from physics.eccentricity import characteristic_impedance_eccentric
 from physics.line import characteristic_impedance_lossless, line_parameters, propagation_constant
 from physics.sensitivity import (
     attenuation_conductor_skin_effect,

@@ -1,4 +1,4 @@
-"""AWG diameters, the metric size list and snapping (physics.wire_sizes, catalogs/wire-sizes.toml)."""
+"""AWG diameters, metric size lists, snapping (physics.wire_sizes, catalogs/wire-sizes/standard-sizes.toml)."""
 
 import tomllib
 from pathlib import Path
@@ -8,7 +8,7 @@ import pytest
 
 from physics.wire_sizes import awg_diameter, awg_gauge_number, awg_gauges, snap_to_sizes
 
-CATALOG = Path(__file__).resolve().parents[2] / "catalogs" / "wire-sizes.toml"
+CATALOG = Path(__file__).resolve().parents[2] / "catalogs" / "wire-sizes" / "standard-sizes.toml"
 
 
 def load_sizes():
