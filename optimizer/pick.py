@@ -228,6 +228,10 @@ def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
 
 # ------------------------------------------------------------------------------------ output
 
+#: Shown when the run had a [tolerance] table.
+YIELD_COLUMNS = ("impedance_yield", "z0_3sigma_low_ohm", "z0_3sigma_high_ohm")
+
+
 def _key_columns(objectives) -> list[str]:
     cols = [OBJECTIVES[o].column for o in objectives]
     for extra in ("z0_ohm", "outer_diameter_m"):
@@ -249,7 +253,7 @@ def _json_value(v):
 def picks_to_json(result: PickResult) -> dict:
     """The ``--json`` object: method, objectives and one object per pick (SI, units in keys)."""
     cols = (["rank", "member", "catalog", INDEX_COLUMN, *MATERIAL_COLUMNS, *GEOMETRY_KEYS]
-            + _key_columns(result.objectives) + ["score"]
+            + _key_columns(result.objectives) + list(YIELD_COLUMNS) + ["score"]
             + [f"pseudo_weight_{o}" for o in result.objectives])
     picks = []
     for _, row in result.picks.iterrows():
@@ -275,8 +279,11 @@ def format_picks(result: PickResult) -> str:
     labels = {OBJECTIVES[o].column: OBJECTIVES[o].label for o in result.objectives}
     labels.setdefault("z0_ohm", "|Z0| [ohm]")
     labels["outer_diameter_m"] = "outer diameter [mm]"
+    with_yield = "impedance_yield" in result.picks.columns and bool(
+        result.picks["impedance_yield"].notna().any())
     headers = (["rank", "catalog", "index", "conductor", "dielectric", "shield", "jacket",
-                "a [mm]", "b [mm]"] + [labels[c] for c in obj_cols] + ["score"])
+                "a [mm]", "b [mm]"] + [labels[c] for c in obj_cols]
+               + (["yield", "Z0 3-sigma [ohm]"] if with_yield else []) + ["score"])
     lines = [f"cablefam pick: {result.run_dir}, method {result.method} "
              f"({SCORE_MEANING[result.method]})"]
     if result.weights:
@@ -295,7 +302,11 @@ def format_picks(result: PickResult) -> str:
                          r["dielectric"], r["shield"], r["jacket"] or "-",
                          1e3 * float(r["inner_radius_m"]), 1e3 * float(r["dielectric_radius_m"])]
                         + [1e3 * float(r[c]) if c == "outer_diameter_m" else float(r[c])
-                           for c in obj_cols] + [float(r["score"])])
+                           for c in obj_cols]
+                        + ([f"{float(r['impedance_yield']):.4f}",
+                            f"{float(r['z0_3sigma_low_ohm']):.4g}-"
+                            f"{float(r['z0_3sigma_high_ohm']):.4g}"] if with_yield else [])
+                        + [float(r["score"])])
         lines.append(format_table(headers, rows, indent="  "))
     lines += ["", f"export one: cablefam design {result.run_dir} --member MEMBER --index INDEX"]
     return "\n".join(lines)

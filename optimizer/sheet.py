@@ -315,6 +315,15 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
                                 "catalog changed since the run?): " + "; ".join(notes)))
     margins = [(k[len("margin_"):], f"{float(row[k]):.4g}") for k in row.index
                if k.startswith("margin_")]
+    if "impedance_yield" in row.index and pd.notna(row["impedance_yield"]):
+        blocks += [
+            Heading(2, "Manufacturing yield (the run's [tolerance] spreads)"),
+            Table(("quantity", "value"), (
+                ("impedance yield (share within the tolerance band)",
+                 f"{float(row['impedance_yield']):.4f}"),
+                ("Z0 3-sigma band [ohm]", f"{float(row['z0_3sigma_low_ohm']):.4g} .. "
+                                          f"{float(row['z0_3sigma_high_ohm']):.4g}"))),
+        ]
     blocks += [
         Heading(2, "Constraint margins (fraction of the limit; >= 0 is within it)"),
         Table(("constraint", "margin"), tuple(margins)),

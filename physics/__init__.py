@@ -10,6 +10,11 @@ Modules, one per physical area:
 - :mod:`physics.modes` -- TE11 cutoff (exact Bessel cross-product root and the usual estimate).
 - :mod:`physics.thermal` -- IEC 60287 steady-state temperature rise and power rating.
 - :mod:`physics.mass` -- mass, cost, outer diameter and DC loop resistance.
+- :mod:`physics.eccentricity` -- offset centre conductor: arccosh impedance, Wheeler loss
+  factors, field crowding.
+- :mod:`physics.sensitivity` -- analytic derivatives of Z0 and attenuation by each radius.
+- :mod:`physics.stranding` -- 7/19/37-strand centre conductors: effective radius, resistance.
+- :mod:`physics.wire_sizes` -- the AWG series (ASTM B258) and snapping to standard sizes.
 - :mod:`physics.units` -- the unit conversions used at the edges.
 
 Every function broadcasts over numpy arrays of any shape, so one call evaluates a whole
