@@ -15,6 +15,7 @@ $(VENV)/.installed: $(BIN)/python pyproject.toml
 
 demo: $(VENV)/.installed
 	$(BIN)/cablefam sweep --demo --overwrite
+	@echo "(the cablefam command is $(BIN)/cablefam; or run: . $(BIN)/activate)"
 
 test: $(VENV)/.installed
 	$(BIN)/python -m pytest -q

@@ -152,8 +152,13 @@ def _report_run(run_dir, first_member):
     typer.echo(str(run_dir))
     typer.echo(f"results: {run_dir / 'front.parquet'} (Pareto sets), {run_dir / 'run.json'} "
                "(provenance and timings)", err=True)
-    typer.echo(f"next: cablefam design {run_dir} --member {first_member} --index 0 > "
-               "design.toml && cablefam inspect design.toml", err=True)
+    typer.echo("next:\n"
+               f"  cablefam pick {run_dir} --top 3 --sheet {run_dir}/sheets   # candidates, "
+               "design sheets\n"
+               f"  cablefam compare {run_dir}                    # which catalog wins where\n"
+               f"  cablefam plot {run_dir} --out {run_dir}/plots   # PNG/SVG fronts\n"
+               f"  cablefam design {run_dir} --member {first_member} --index 0 > design.toml"
+               " && cablefam inspect design.toml", err=True)
 
 
 @app.command()

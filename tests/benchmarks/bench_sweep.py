@@ -99,37 +99,33 @@ def _label(file_name, line, name):
 
 
 def fixed_material_sweep():
-    """The demo sweep restricted to one catalog and one material per table."""
+    """The demo sweep restricted to one catalog and one material per table.
+
+    A Monte Carlo impedance yield (if the sweep has a ``[tolerance]`` table) is switched to the
+    analytic estimate: deterministic, so that the grid and every seed of the search see exactly
+    the same problem, and cheap enough for a dense grid.
+    """
     path = demo_sweep_path()
     raw = read_toml(path)
     raw["catalogs"] = [c for c in raw["catalogs"] if c.endswith(HV_CATALOG)]
     raw["search"].update(HV_MATERIALS)
     raw["name"] = raw["name"] + "-hv"
+    if "tolerance" in raw:
+        raw["tolerance"]["method"] = "analytic"
     return parse_sweep(raw, str(path), path.parent, path.read_text(encoding="utf-8"))
 
 
-def grid_points(problem: MemberProblem, n_a, n_ratio, n_shield, n_jacket, band_widening):
-    """A dense grid of decision vectors covering the member's impedance band.
+def grid_points(problem: MemberProblem, a_range, ratio_range, n_a, n_ratio, n_shield, n_jacket):
+    """A grid of decision vectors: log-spaced a, b = a * ratio, shield and jacket thickness.
 
     The impedance constraint confines the feasible designs to a thin band of b/a, so the grid
-    runs over log-spaced a, and over b = a * ratio with the ratio spanning the band of the
-    lossless impedance ``impedance_ohm +- band_widening * tolerance`` (the lossy |Z0| lies
-    within a fraction of an ohm of it); shield and jacket thickness run over their bounds.
+    runs over b/a rather than over b; shield and jacket thickness run over their bounds.
     Points with b outside its bounds are dropped. Returns an (n, 4) decision matrix.
     """
     layout = problem.layout
-    if layout.free_geometry != ("inner_radius_m", "dielectric_radius_m", "shield_thickness_m",
-                                "jacket_thickness_m") or layout.free_materials:
-        raise ValueError(f"grid expects the four radii free and no material choice, got "
-                         f"{layout.free_geometry} and {layout.free_materials}")
     b_lo, b_hi = layout.bounds["dielectric_radius_m"]
-    eps = float(problem.designs(np.array([problem.xl]))[0].dielectric["relative_permittivity"][0])
-    m = problem.member
-    eta_0 = mu_0 * speed_of_light
-    z_lo = m.impedance_ohm - band_widening * m.impedance_tolerance_ohm
-    z_hi = m.impedance_ohm + band_widening * m.impedance_tolerance_ohm
-    ratio = np.exp(2.0 * np.pi * np.sqrt(eps) * np.linspace(z_lo, z_hi, n_ratio) / eta_0)
-    a = np.geomspace(*layout.bounds["inner_radius_m"], n_a)
+    a = np.geomspace(*a_range, n_a)
+    ratio = np.geomspace(*ratio_range, n_ratio)
     t_s = np.linspace(*layout.bounds["shield_thickness_m"], n_shield)
     t_j = np.linspace(*layout.bounds["jacket_thickness_m"], n_jacket)
     aa, rr, ss, jj = np.meshgrid(a, ratio, t_s, t_j, indexing="ij")
@@ -138,24 +134,61 @@ def grid_points(problem: MemberProblem, n_a, n_ratio, n_shield, n_jacket, band_w
     return x[keep]
 
 
-def feasible_front(problem: MemberProblem, x, chunk):
-    """Objectives of the feasible non-dominated points of ``x`` (evaluated in chunks)."""
-    fs = []
-    n_feasible = 0
+def impedance_ratio_band(problem: MemberProblem, widening):
+    """b/a range of the lossless impedance ``impedance_ohm +- widening * tolerance``."""
+    eps = float(problem.designs(np.array([problem.xl]))[0].dielectric["relative_permittivity"][0])
+    m = problem.member
+    eta_0 = mu_0 * speed_of_light
+    z = m.impedance_ohm + widening * m.impedance_tolerance_ohm * np.array([-1.0, 1.0])
+    return tuple(np.exp(2.0 * np.pi * np.sqrt(eps) * z / eta_0))
+
+
+def evaluate_grid(problem: MemberProblem, x, chunk):
+    """Decision vectors and objectives of the feasible points of ``x`` (evaluated in chunks)."""
+    xs, fs = [], []
     for start in range(0, len(x), chunk):
-        values, margins, _ = problem.evaluate_designs(x[start:start + chunk])
-        ok = np.all(np.column_stack([v for v in margins.values()]) >= 0.0, axis=1)
-        f = objective_matrix(values, problem.objectives)[ok]
-        n_feasible += int(ok.sum())
-        if len(f):
-            fs.append(f[NonDominatedSorting().do(f, only_non_dominated_front=True)])
-    f = np.vstack(fs)
-    return f[NonDominatedSorting().do(f, only_non_dominated_front=True)], n_feasible
+        part = x[start:start + chunk]
+        values, margins, _ = problem.evaluate_designs(part)
+        ok = np.all(np.column_stack(list(margins.values())) >= 0.0, axis=1)
+        xs.append(part[ok])
+        fs.append(objective_matrix(values, problem.objectives)[ok])
+    return np.vstack(xs), np.vstack(fs)
+
+
+def non_dominated(f):
+    return f[NonDominatedSorting().do(f, only_non_dominated_front=True)]
+
+
+def reference_front(problem: MemberProblem, coarse, dense, widening, chunk):
+    """Brute-force front in two stages: a coarse grid over the whole box finds the feasible
+    region, a dense grid over that region (one coarse step wider each side) resolves it."""
+    layout = problem.layout
+    if layout.free_geometry != ("inner_radius_m", "dielectric_radius_m", "shield_thickness_m",
+                                "jacket_thickness_m") or layout.free_materials:
+        raise ValueError(f"the grid expects the four radii free and no material choice, got "
+                         f"{layout.free_geometry} and {layout.free_materials}")
+    a_box = layout.bounds["inner_radius_m"]
+    band = impedance_ratio_band(problem, widening)
+    x1 = grid_points(problem, a_box, band, *coarse)
+    xf, f1 = evaluate_grid(problem, x1, chunk)
+    if len(xf) == 0:
+        raise RuntimeError(f"no feasible point on the coarse grid {coarse}: refine it")
+    step_a = (a_box[1] / a_box[0]) ** (1.0 / max(coarse[0] - 1, 1))
+    step_r = (band[1] / band[0]) ** (1.0 / max(coarse[1] - 1, 1))
+    ratio = xf[:, 1] / xf[:, 0]
+    a_range = (max(a_box[0], xf[:, 0].min() / step_a), min(a_box[1], xf[:, 0].max() * step_a))
+    r_range = (ratio.min() / step_r, ratio.max() * step_r)
+    x2 = grid_points(problem, a_range, r_range, *dense)
+    _, f2 = evaluate_grid(problem, x2, chunk)
+    info = {"coarse_points": int(len(x1)), "coarse_feasible": int(len(xf)),
+            "dense_points": int(len(x2)), "dense_feasible": int(len(f2)),
+            "dense_inner_radius_m": list(a_range), "dense_radius_ratio": list(r_range)}
+    return non_dominated(np.vstack([f1, f2])), info
 
 
 def search_curve(sweep, member, catalog_name, population, generations, seed):
     """Feasible archive objectives and evaluation counts at each generation in ``generations``."""
-    problem = _RecordingProblem(sweep, member, catalog_name)
+    problem = _RecordingProblem(sweep, member, catalog_name, seed=seed)
     algorithm = make_algorithm(problem, population, seed)
     algorithm.setup(problem, termination=("n_gen", max(generations)), seed=seed, verbose=False)
     snapshots, gen = {}, 0
@@ -172,8 +205,14 @@ def main(argv=None):
     parser.add_argument("--repeats", type=int, default=3, help="runs of the demo sweep")
     parser.add_argument("--generations", type=int, nargs="+", default=[5, 10, 20, 40, 80])
     parser.add_argument("--seeds", type=int, default=3, help="independent searches in part 2")
-    parser.add_argument("--grid", type=int, nargs=4, default=[600, 31, 6, 4],
-                        metavar=("N_A", "N_RATIO", "N_SHIELD", "N_JACKET"))
+    parser.add_argument("--member", default=HV_MEMBER, help="member of the demo sweep for "
+                        "the hypervolume curve")
+    parser.add_argument("--coarse-grid", type=int, nargs=4, default=[150, 21, 4, 3],
+                        metavar=("N_A", "N_RATIO", "N_SHIELD", "N_JACKET"),
+                        help="grid over the whole box that finds the feasible region")
+    parser.add_argument("--grid", type=int, nargs=4, default=[300, 25, 5, 3],
+                        metavar=("N_A", "N_RATIO", "N_SHIELD", "N_JACKET"),
+                        help="dense grid over the feasible region")
     parser.add_argument("--band-widening", type=float, default=1.3,
                         help="grid ratio band as a multiple of the impedance tolerance")
     parser.add_argument("--chunk", type=int, default=50_000)
@@ -235,26 +274,34 @@ def main(argv=None):
 
     # part 2 ----------------------------------------------------------------------------------
     sweep = fixed_material_sweep()
-    member = next(m for m in sweep.spec.member if m.name == HV_MEMBER)
+    member = next(m for m in sweep.spec.member if m.name == args.member)
     catalog_name = sweep.catalogs[0].name
-    problem = MemberProblem(sweep, member, catalog_name)
+    base_seed = task_seed(sweep.spec.seed, member.name, catalog_name)
+    problem = MemberProblem(sweep, member, catalog_name, seed=base_seed)
     t0 = time.perf_counter()
-    x_grid = grid_points(problem, *args.grid, args.band_widening)
-    f_grid, n_feasible = feasible_front(problem, x_grid, args.chunk)
+    f_grid, grid_info = reference_front(problem, args.coarse_grid, args.grid,
+                                        args.band_widening, args.chunk)
     t_grid = time.perf_counter() - t0
+    n_grid = grid_info["coarse_points"] + grid_info["dense_points"]
     print(f"hypervolume: {member.name} x {catalog_name}, materials "
           f"{', '.join(f'{k}={v[0]}' for k, v in HV_MATERIALS.items())}; objectives "
-          f"{', '.join(problem.objectives)}")
-    print(f"  grid {' x '.join(map(str, args.grid))} -> {len(x_grid):,} points in bounds "
-          f"({t_grid:.1f} s, {len(x_grid) / t_grid:,.0f} evaluations/s): {n_feasible:,} "
-          f"feasible, {len(f_grid)} on the front")
+          f"{', '.join(problem.objectives)}"
+          + ("; impedance yield: analytic estimate" if sweep.spec.tolerance else ""))
+    print(f"  coarse grid {' x '.join(map(str, args.coarse_grid))} over the box: "
+          f"{grid_info['coarse_points']:,} points, {grid_info['coarse_feasible']:,} feasible; "
+          f"dense grid {' x '.join(map(str, args.grid))} over a = "
+          f"{grid_info['dense_inner_radius_m'][0] * 1e3:.3f}..."
+          f"{grid_info['dense_inner_radius_m'][1] * 1e3:.3f} mm, b/a = "
+          f"{grid_info['dense_radius_ratio'][0]:.4f}...{grid_info['dense_radius_ratio'][1]:.4f}: "
+          f"{grid_info['dense_points']:,} points, {grid_info['dense_feasible']:,} feasible")
+    print(f"  {n_grid:,} grid evaluations in {t_grid:.1f} s ({n_grid / t_grid:,.0f}/s); "
+          f"{len(f_grid)} points on the grid front")
     ideal, nadir = f_grid.min(axis=0), f_grid.max(axis=0)
     hv = HV(ref_point=np.full(f_grid.shape[1], HV_REFERENCE), ideal=ideal, nadir=nadir,
             zero_to_one=True, norm_ref_point=False)
     hv_grid = float(hv(f_grid))
     population = sweep.spec.search.population
     gens = sorted(set(args.generations))
-    base_seed = task_seed(sweep.spec.seed, member.name, catalog_name)
     curves, finals = [], [f_grid]
     for k in range(args.seeds):
         snaps = search_curve(sweep, member, catalog_name, population, gens, base_seed + k)
@@ -262,9 +309,7 @@ def main(argv=None):
                        for g, (n, f) in snaps.items()})
         finals.append(snaps[gens[-1]][1])
     # completeness of the grid: how much the searches' final archives add to its front
-    union = np.vstack(finals)
-    union_gain = float(hv(union[NonDominatedSorting().do(union, only_non_dominated_front=True)])
-                       ) / hv_grid
+    union_gain = float(hv(non_dominated(np.vstack(finals)))) / hv_grid
     print(f"  HV of the grid front {hv_grid:.6f} (objectives normalized to the grid front's "
           f"ideal/nadir, reference point {HV_REFERENCE} each); search with population "
           f"{population}, {args.seeds} seeds:")
@@ -280,8 +325,8 @@ def main(argv=None):
     results.update({
         "hv_union_over_grid": union_gain,
         "hv_member": member.name, "hv_catalog": catalog_name, "hv_materials": HV_MATERIALS,
-        "hv_grid": args.grid, "hv_grid_points": int(len(x_grid)),
-        "hv_grid_feasible": n_feasible, "hv_grid_front": int(len(f_grid)),
+        "hv_coarse_grid": args.coarse_grid, "hv_grid": args.grid, "hv_grid_points": n_grid,
+        "hv_grid_info": grid_info, "hv_grid_front": int(len(f_grid)),
         "hv_grid_seconds": t_grid, "hv_reference_point": HV_REFERENCE,
         "hv_population": population, "hv_seeds": args.seeds,
         "hv_ratio_by_generation": {str(g): by_gen[g] for g in gens},
