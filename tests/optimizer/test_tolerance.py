@@ -114,8 +114,9 @@ def test_sweep_with_yield_requirement_meets_it_on_resampling(tmp_path):
     # re-sample with fresh, independent draws and 20x the samples
     spread = sweep.spec.tolerance.spread()
     draws = common_draws(spread, 8000, seed=12345)
-    eps = np.array([{"solid-pe": 2.25, "solid-hdpe": 2.35, "foam-pe-50": 1.5,
-                     "foam-pe-70": 1.275}[d] for d in df["dielectric"]])
+    cats = {c.name: c for c in sweep.catalogs}
+    eps = np.array([cats[c].materials["dielectric"][d].relative_permittivity
+                    for c, d in zip(df["catalog"], df["dielectric"])])
     scale = df["z0_ohm"] / df["z0_lossless_ohm"]
     y, _, _ = impedance_yield_monte_carlo(df["inner_radius_m"], df["dielectric_radius_m"], eps,
                                           50.0, 1.5, spread, draws, scale.to_numpy())
