@@ -5,6 +5,7 @@ import pytest
 from scipy import optimize, special
 from scipy.constants import speed_of_light
 
+from physics import modes
 from physics.modes import (
     te11_cutoff_frequency,
     te11_cutoff_frequency_approx,
@@ -118,3 +119,16 @@ def test_scalar_list_array_and_broadcasting():
     np.testing.assert_allclose(np.diag(grid), te11_cutoff_frequency(a, b, 2.1), rtol=1e-13)
     assert np.isfinite(te11_cutoff_wavenumber(np.full(1000, 1e-3),
                                               np.geomspace(1.0001e-3, 1.0, 1000))).all()
+
+
+def test_tabulated_root_agrees_with_exact_root():
+    # the spline of the "auto" path against the per-design root (same equation), and the
+    # exact path beyond the table's range
+    p = np.geomspace(1.0011, 9999.0, 20001)
+    a = np.full_like(p, 1e-3)
+    exact = modes.te11_cutoff_wavenumber(a, a * p, method="exact")
+    auto = modes.te11_cutoff_wavenumber(a, a * p)
+    assert np.max(np.abs(auto / exact - 1.0)) < 1e-10
+    far = np.array([1.0005, 2e4])
+    assert np.array_equal(modes.te11_cutoff_wavenumber(1e-3, 1e-3 * far),
+                          modes.te11_cutoff_wavenumber(1e-3, 1e-3 * far, method="exact"))
