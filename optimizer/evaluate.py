@@ -89,8 +89,24 @@ def electrical_inner_radius(d: Designs):
     return d.inner_radius
 
 
-def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
+def _reference_quantities(d: Designs, op: OperatingPoint):
+    """Skin depths and DC resistances at the catalog (20 degC) resistivities."""
     a, b, c = d.inner_radius, d.dielectric_radius, d.shield_radius
+    f = op.frequency_hz
+    out = {
+        "skin_depth_inner_m": skin_depth(d.inner["resistivity_ohm_m"], f,
+                                         d.inner.get("relative_permeability", 1.0)),
+        "skin_depth_shield_m": skin_depth(d.shield["resistivity_ohm_m"], f,
+                                          d.shield.get("relative_permeability", 1.0)),
+        "dc_resistance_inner_ohm_per_m": stranding.stranded_dc_resistance(
+            a, d.inner_strands, d.inner["resistivity_ohm_m"]),
+        "dc_resistance_shield_ohm_per_m": d.shield["resistivity_ohm_m"] / (np.pi * (c * c - b * b)),
+    }
+    return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+
+
+def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
+    a, b = d.inner_radius, d.dielectric_radius
     f = op.frequency_hz
     gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
     z0 = gamma / (lp.g + 2j * np.pi * f * lp.c)
@@ -111,15 +127,10 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
         "dielectric_attenuation_db_per_100m": neper_per_m_to_db_per_100m(alpha_d),
         "velocity_factor": line.velocity_factor(gamma.imag, f),
         "delay_s_per_m": line.delay_per_metre(gamma.imag, f),
-        "skin_depth_inner_m": skin_depth(d.inner["resistivity_ohm_m"], f,
-                                         d.inner.get("relative_permeability", 1.0)),
-        "skin_depth_shield_m": skin_depth(d.shield["resistivity_ohm_m"], f,
-                                          d.shield.get("relative_permeability", 1.0)),
-        "dc_resistance_inner_ohm_per_m": stranding.stranded_dc_resistance(
-            a, d.inner_strands, d.inner["resistivity_ohm_m"]),
-        "dc_resistance_shield_ohm_per_m": d.shield["resistivity_ohm_m"] / (np.pi * (c * c - b * b)),
     }
-    return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+    out = {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+    out.update(_reference_quantities(d, op))
+    return out
 
 
 def evaluate(d: Designs, op: OperatingPoint, method="auto",
@@ -129,12 +140,54 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
     Returns a dict of float arrays (shape of the designs), keyed by the names of
     ``cablefam inspect --json``. Keys whose inputs are missing (no jacket table, no power, no
     peak voltage, no thermal properties) are left out, never filled with NaN. When
-    ``power_w`` is given, the line quantities are those at the operating temperatures.
+    ``power_w`` is given, the line quantities are those at the operating temperatures (skin
+    depths and DC resistances stay the 20 degC reference values).
+    ``include_max_power=False`` skips the power rating (a root search per design), which the
+    search only needs when it is an objective.
     """
     a, b = d.inner_radius, d.dielectric_radius
     c, rd = d.shield_radius, d.outer_radius
     diel = d.dielectric
-    out = electromagnetic(d, op, method)
+    no_jacket = bool(np.all(d.jacket_thickness == 0.0))
+    jacket = d.jacket if d.jacket is not None else ({} if no_jacket else None)
+    thermal_ok = (_has(d.inner, "temperature_coefficient_per_k")
+                  and _has(d.shield, "temperature_coefficient_per_k")
+                  and _has(diel, "thermal_resistivity_k_m_per_w")
+                  and (no_jacket or _has(jacket, "thermal_resistivity_k_m_per_w")))
+    common = None
+    if thermal_ok:
+        common = dict(
+            a=a, b=b, c=c, d=rd, frequency=op.frequency_hz, ambient_c=op.ambient_c,
+            inner_resistivity_20c=d.inner["resistivity_ohm_m"],
+            inner_temperature_coefficient=d.inner["temperature_coefficient_per_k"],
+            shield_resistivity_20c=d.shield["resistivity_ohm_m"],
+            shield_temperature_coefficient=d.shield["temperature_coefficient_per_k"],
+            relative_permittivity=diel["relative_permittivity"],
+            loss_tangent=diel["loss_tangent"],
+            dielectric_thermal_resistivity=diel["thermal_resistivity_k_m_per_w"],
+            jacket_thermal_resistivity=jacket.get("thermal_resistivity_k_m_per_w", 1.0),
+            inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
+            shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
+            offset=d.eccentricity, inner_strands=d.inner_strands,
+        )
+    state = None
+    if thermal_ok and op.power_w is not None:
+        state = thermal.coax_thermal_state(power=op.power_w, **common)
+        # the line at the operating temperatures of the two conductors
+        hot = Designs(
+            a, b, d.shield_thickness, d.jacket_thickness,
+            inner={**d.inner, "resistivity_ohm_m": thermal.resistivity_at_temperature(
+                d.inner["resistivity_ohm_m"], d.inner["temperature_coefficient_per_k"],
+                np.where(state.converged, state.conductor_temperature_c, op.ambient_c))},
+            shield={**d.shield, "resistivity_ohm_m": thermal.resistivity_at_temperature(
+                d.shield["resistivity_ohm_m"], d.shield["temperature_coefficient_per_k"],
+                np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
+            dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
+            inner_strands=d.inner_strands)
+        out = electromagnetic(hot, op, method)
+        out.update(_reference_quantities(d, op))
+    else:
+        out = electromagnetic(d, op, method)
     a_el = electrical_inner_radius(d)
     out["outer_diameter_m"] = mass.outer_diameter(rd) + 0.0 * a
     out["te11_cutoff_hz"] = modes.te11_cutoff_frequency(a_el, b, diel["relative_permittivity"])
@@ -154,8 +207,6 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
     out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(
         out["dc_resistance_inner_ohm_per_m"] + out["dc_resistance_shield_ohm_per_m"])
 
-    no_jacket = bool(np.all(d.jacket_thickness == 0.0))
-    jacket = d.jacket if d.jacket is not None else ({} if no_jacket else None)
     densities = ("density_kg_per_m3",)
     if _has(d.inner, *densities) and _has(d.shield, *densities) and _has(diel, *densities) and (
             no_jacket or _has(jacket, *densities)):
@@ -176,27 +227,7 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
                 masses, d.inner["price_per_kg"], diel["price_per_kg"], d.shield["price_per_kg"],
                 jacket.get("price_per_kg", 0.0)))
 
-    thermal_ok = (_has(d.inner, "temperature_coefficient_per_k")
-                  and _has(d.shield, "temperature_coefficient_per_k")
-                  and _has(diel, "thermal_resistivity_k_m_per_w")
-                  and (no_jacket or _has(jacket, "thermal_resistivity_k_m_per_w")))
-    if not thermal_ok:
-        return out
-    common = dict(
-        a=a, b=b, c=c, d=rd, frequency=op.frequency_hz, ambient_c=op.ambient_c,
-        inner_resistivity_20c=d.inner["resistivity_ohm_m"],
-        inner_temperature_coefficient=d.inner["temperature_coefficient_per_k"],
-        shield_resistivity_20c=d.shield["resistivity_ohm_m"],
-        shield_temperature_coefficient=d.shield["temperature_coefficient_per_k"],
-        relative_permittivity=diel["relative_permittivity"], loss_tangent=diel["loss_tangent"],
-        dielectric_thermal_resistivity=diel["thermal_resistivity_k_m_per_w"],
-        jacket_thermal_resistivity=jacket.get("thermal_resistivity_k_m_per_w", 1.0),
-        inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
-        shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
-        offset=d.eccentricity, inner_strands=d.inner_strands,
-    )
-    if op.power_w is not None:
-        state = thermal.coax_thermal_state(power=op.power_w, **common)
+    if state is not None:
         out.update({
             "conductor_temperature_c": state.conductor_temperature_c,
             "shield_temperature_c": state.shield_temperature_c,
@@ -205,23 +236,7 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
             "heat_w_per_m": state.heat_w_per_m,
             "thermal_converged": state.converged.astype(float),
         })
-        # line quantities at the operating temperatures of the two conductors
-        hot = Designs(
-            a, b, d.shield_thickness, d.jacket_thickness,
-            inner={**d.inner, "resistivity_ohm_m": thermal.resistivity_at_temperature(
-                d.inner["resistivity_ohm_m"], d.inner["temperature_coefficient_per_k"],
-                np.where(state.converged, state.conductor_temperature_c, op.ambient_c))},
-            shield={**d.shield, "resistivity_ohm_m": thermal.resistivity_at_temperature(
-                d.shield["resistivity_ohm_m"], d.shield["temperature_coefficient_per_k"],
-                np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
-            dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
-            inner_strands=d.inner_strands)
-        hot_em = electromagnetic(hot, op, method)
-        for key in ("skin_depth_inner_m", "skin_depth_shield_m", "dc_resistance_inner_ohm_per_m",
-                    "dc_resistance_shield_ohm_per_m"):
-            hot_em.pop(key)  # these stay the 20 degC reference values
-        out.update(hot_em)
-    if include_max_power and "max_temperature_c" in diel:
+    if thermal_ok and include_max_power and "max_temperature_c" in diel:
         jacket_max = jacket.get("max_temperature_c") if not no_jacket else None
         out["max_power_w"] = thermal.max_power(
             dielectric_max_temperature_c=diel["max_temperature_c"],

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+import numpy as np
+
 
 @dataclass(frozen=True)
 class Objective:
@@ -29,10 +31,8 @@ OBJECTIVES = {o.name: o for o in (
 )}
 
 
-def objective_matrix(values: dict, names) -> "np.ndarray":
+def objective_matrix(values: dict, names) -> np.ndarray:
     """Stack the objectives as pymoo minimises them (maximised ones negated), shape (n, k)."""
-    import numpy as np
-
     cols = []
     for name in names:
         o = OBJECTIVES[name]

@@ -188,14 +188,29 @@ def checkpoint_cost(sweep_file: Path, out: Path, n_tasks: int = 2) -> dict:
             "share_every_30s_estimate": per / 30.0}
 
 
+def session_pids(sid: int) -> list[int]:
+    """Processes of session ``sid`` (Linux /proc), e.g. a killed sweep's worker processes."""
+    out = []
+    for stat in Path("/proc").glob("[0-9]*/stat"):
+        try:
+            fields = stat.read_text().rsplit(")", 1)[1].split()
+        except OSError:
+            continue
+        if int(fields[3]) == sid:  # fields after the command: state ppid pgrp session ...
+            out.append(int(stat.parent.name))
+    return out
+
+
 def kill_and_resume(sweep_file: Path, out: Path, n_tasks: int, workers: int) -> dict:
-    """SIGKILL a real sweep process once half the tasks are finished; time the resume."""
+    """SIGKILL a real sweep process and its workers (as a crash of the machine would) once half
+    the tasks are finished; time the resume."""
     name = load_sweep(sweep_file).spec.name
     run_dir = out / name
     cmd = [sys.executable, "-m", "optimizer.cli"]
     proc = subprocess.Popen(cmd + ["sweep", str(sweep_file), "--out", str(out), "--quiet",
                                    "--workers", str(workers)],
-                            stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
+                            stdout=subprocess.DEVNULL, stderr=subprocess.PIPE,
+                            start_new_session=True)
     t0 = time.perf_counter()
     while proc.poll() is None:
         if len(list(run_dir.glob("tasks/*/result.json"))) >= n_tasks // 2:
@@ -204,6 +219,10 @@ def kill_and_resume(sweep_file: Path, out: Path, n_tasks: int, workers: int) -> 
         time.sleep(0.01)
     proc.wait()
     killed_after = time.perf_counter() - t0
+    # the worker processes outlive a SIGKILLed parent (they ignore SIGINT/SIGTERM): kill them
+    orphans = [pid for pid in session_pids(proc.pid) if pid != proc.pid]
+    for pid in orphans:
+        os.kill(pid, signal.SIGKILL)
     done = len(list(run_dir.glob("tasks/*/result.json")))
     t0 = time.perf_counter()
     res = subprocess.run(cmd + ["resume", str(run_dir), "--quiet", "--workers", str(workers)],
@@ -213,6 +232,7 @@ def kill_and_resume(sweep_file: Path, out: Path, n_tasks: int, workers: int) -> 
         raise SystemExit(f"resume failed: {res.stderr}")
     info = json.loads((run_dir / RUN_FILE).read_text(encoding="utf-8"))
     return {"killed_after_s": killed_after, "tasks_done_at_kill": done,
+            "orphan_processes_after_parent_kill": len(orphans),
             "tasks_taken_from_earlier_session": info["tasks_taken_from_earlier_session"],
             "resume_s": resume_s, "front": (run_dir / "front.parquet").read_bytes()}
 
@@ -235,6 +255,18 @@ def bench_family(label, sweep_file, tmp, cluster, extra):
     return out
 
 
+def source_digest() -> str:
+    """SHA-256 over the package sources and catalogs (to notice edits during a long run)."""
+    import hashlib
+
+    root = CATALOG_DIR.parent
+    h = hashlib.sha256()
+    for path in sorted([*root.glob("optimizer/**/*.py"), *root.glob("physics/**/*.py"),
+                        *root.glob("optimizer/demo/*.toml"), *CATALOG_DIR.glob("*.toml")]):
+        h.update(path.relative_to(root).as_posix().encode() + b"\0" + path.read_bytes())
+    return h.hexdigest()
+
+
 def main(argv=None):
     parser = argparse.ArgumentParser(description=__doc__.split("\n")[0])
     parser.add_argument("--population", type=int, default=100, help="of the large family")
@@ -244,7 +276,9 @@ def main(argv=None):
 
     from dask.distributed import LocalCluster
 
-    results = {"python": platform.python_version(), "cores": os.cpu_count()}
+    results = {"python": platform.python_version(), "cores": os.cpu_count(),
+               "load_average_start": os.getloadavg()[0]}
+    digest = source_digest()
     fronts = {}
     with tempfile.TemporaryDirectory(prefix="cablefam-bench-par-") as tmp_name:
         tmp = Path(tmp_name)
@@ -278,13 +312,19 @@ def main(argv=None):
         kr["resume_over_full_run"] = kr["resume_s"] / big["wall_2_workers_s"]
         results["resume"] = kr
 
+    results["load_average_end"] = os.getloadavg()[0]
+    results["sources_changed_during_run"] = source_digest() != digest
     print_table(results)
     print(json.dumps(results, sort_keys=True))
 
 
 def print_table(r):
-    print(f"cablefam parallel benchmark: Python {r['python']}, {r['cores']} cores; "
+    print(f"cablefam parallel benchmark: Python {r['python']}, {r['cores']} cores, load "
+          f"average {r['load_average_start']:.1f} at start, {r['load_average_end']:.1f} at end; "
           f"LocalCluster start {r['cluster_start_s']:.1f} s (not counted)")
+    if r["sources_changed_during_run"]:
+        print("WARNING: package sources or catalogs changed during the run; fronts of "
+              "different runs may differ for that reason")
     print(f"{'sweep':<8}{'tasks':>6}{'task s':>8}{'1 worker s':>12}{'2 workers s':>13}"
           f"{'x':>6}{'cluster s':>11}{'x':>6}  identical")
     for label in ("demo", "large"):
@@ -306,7 +346,8 @@ def print_table(r):
           f"when every generation; {100 * c['share_every_30s_estimate']:.3f} % at one per 30 s)")
     k = r["resume"]
     print(f"resume (large, 2 workers): killed after {k['killed_after_s']:.1f} s with "
-          f"{k['tasks_done_at_kill']} tasks done; resume took {k['resume_s']:.1f} s "
+          f"{k['tasks_done_at_kill']} tasks done ({k['orphan_processes_after_parent_kill']} worker "
+          f"processes outlived the parent, killed too); resume took {k['resume_s']:.1f} s "
           f"({100 * k['resume_over_full_run']:.0f} % of an uninterrupted run), "
           f"{k['tasks_taken_from_earlier_session']} tasks kept; identical: "
           f"{'yes' if k['identical'] else 'NO'}")
