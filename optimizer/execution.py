@@ -14,6 +14,7 @@ import multiprocessing
 import os
 import signal
 import threading
+import time
 from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
 from dataclasses import dataclass
 from functools import lru_cache
@@ -72,11 +73,20 @@ def execute_task(payload_json: str, spec: TaskSpec, progress=None, stop=None) ->
 _WORKER_STOP = None
 
 
+def _exit_when_orphaned(parent_pid: int, interval_s: float = 0.5):
+    """A worker whose parent died (SIGKILL) must not run on, writing into the run folder."""
+    while True:
+        time.sleep(interval_s)
+        if os.getppid() != parent_pid:
+            os._exit(1)
+
+
 def _worker_init(stop_event):
     global _WORKER_STOP  # the process-wide stop flag of a worker process, set once
     _WORKER_STOP = stop_event
     signal.signal(signal.SIGINT, signal.SIG_IGN)  # the parent decides; workers checkpoint
     signal.signal(signal.SIGTERM, signal.SIG_IGN)
+    threading.Thread(target=_exit_when_orphaned, args=(os.getppid(),), daemon=True).start()
     for var in ("OMP_NUM_THREADS", "OPENBLAS_NUM_THREADS", "MKL_NUM_THREADS"):
         os.environ.setdefault(var, "1")
 
@@ -153,7 +163,7 @@ def run_local_processes(payload_json, specs, on_result, progress, stop, workers)
 
 def run_dask(payload_json, specs, on_result, progress, stop, scheduler):
     try:
-        from dask.distributed import Client, as_completed
+        from dask.distributed import Client
     except ImportError:  # pragma: no cover - dask is a dependency
         raise InputError(f"--scheduler = {scheduler!r}: dask[distributed] is not installed")
     remote = [TaskSpec(**{**s.__dict__, "run_dir": None}) for s in specs]
@@ -166,18 +176,23 @@ def run_dask(payload_json, specs, on_result, progress, stop, scheduler):
                                  key=f"cablefam-{s.member}__{s.catalog}-{s.seed}")
                    for s in remote]
         by_key = {f.key: s for f, s in zip(futures, specs)}
-        done = 0
-        for fut in as_completed(futures):
-            if stop.is_set():
-                client.cancel(futures)
+        pending = set(futures)
+        while pending:
+            finished = [f for f in futures if f in pending and f.done()]  # task order
+            if not finished:
+                time.sleep(0.2)  # poll, so that a stop request is seen within a moment
+            for fut in finished:
+                pending.discard(fut)
+                result = fut.result()
+                spec = by_key[fut.key]
+                TaskStore(spec.run_dir, spec.member, spec.catalog).write_result(result)
+                on_result(result)
+            if finished and progress is not None:
+                n_workers = len(client.nthreads())
+                progress.tasks(running=min(len(pending), n_workers),
+                               queued=max(0, len(pending) - n_workers))
+            if stop.is_set() and pending:
+                client.cancel(list(pending))
                 raise TaskInterrupted("stopped on request")
-            result = fut.result()
-            spec = by_key[fut.key]
-            TaskStore(spec.run_dir, spec.member, spec.catalog).write_result(result)
-            on_result(result)
-            done += 1
-            if progress is not None:
-                progress.tasks(running=min(len(futures) - done, len(client.nthreads())),
-                               queued=max(0, len(futures) - done - len(client.nthreads())))
     finally:
         client.close()

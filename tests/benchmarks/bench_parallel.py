@@ -23,7 +23,7 @@ ratios, and whether every front is byte-identical to the serial one. For ``large
   the tasks are finished, then ``cablefam resume RUN --workers 2`` is timed (a fresh interpreter,
   as a user would run it) and its front compared with the uninterrupted one.
 
-Run from the repository root (about 6-7 minutes on 2 cores)::
+Run from the repository root (about 7-8 minutes on 2 cores)::
 
     .venv/bin/python tests/benchmarks/bench_parallel.py
 
@@ -270,7 +270,7 @@ def source_digest() -> str:
 def main(argv=None):
     parser = argparse.ArgumentParser(description=__doc__.split("\n")[0])
     parser.add_argument("--population", type=int, default=100, help="of the large family")
-    parser.add_argument("--generations", type=int, default=70, help="of the large family")
+    parser.add_argument("--generations", type=int, default=150, help="of the large family")
     parser.add_argument("--skip-demo", action="store_true")
     args = parser.parse_args(argv)
 

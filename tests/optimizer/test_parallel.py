@@ -124,7 +124,7 @@ def test_local_cluster_cli_and_resume_same_bytes(reference, cluster, tmp_path, c
     assert info["tasks_taken_from_earlier_session"] == 2
 
 
-# ----------------------------------------------------------------------------- known problems
+# ----------------------------------------------------------------------------- stopping
 
 def session_pids(sid: int) -> list[int]:
     """Processes of session ``sid`` (Linux /proc)."""
@@ -148,11 +148,9 @@ def _start_sweep(sweep_file, out, *extra):
 
 
 @pytest.mark.skipif(not sys.platform.startswith("linux"), reason="reads /proc")
-@pytest.mark.xfail(strict=True, reason="optimizer/execution.py run_local_processes: the "
-                   "ProcessPoolExecutor workers outlive a SIGKILLed parent, finish their task "
-                   "(writing into the run folder, possibly while a resume runs the same task) "
-                   "and then hang for ever, ignoring SIGINT/SIGTERM (_worker_init)")
 def test_sigkill_of_parent_leaves_no_worker_processes(reference, tmp_path):
+    """Worker processes of a SIGKILLed sweep end by themselves within a few seconds (they
+    ignore SIGINT/SIGTERM, so nothing else would stop them writing into the run folder)."""
     proc = _start_sweep(reference[0], tmp_path, "--workers", "2", "--checkpoint-every", "1")
     run_dir = tmp_path / SWEEP_NAME
     try:
@@ -174,9 +172,6 @@ def test_sigkill_of_parent_leaves_no_worker_processes(reference, tmp_path):
 
 
 @pytest.mark.slow
-@pytest.mark.xfail(strict=True, reason="optimizer/execution.py run_dask: the stop flag is "
-                   "polled only when a task completes (as_completed), so SIGINT waits for the "
-                   "next task to finish, and that finished task is then dropped, not stored")
 def test_sigint_on_cluster_stops_promptly(reference, cluster, tmp_path):
     """Tasks of ~10 s (1000 generations); SIGINT 4 s after the start must end the client
     within 4 s with exit code 130."""

@@ -37,6 +37,9 @@ MEMBERS = ("mast-feeder-50", "pier-link-50")
 TASKS = ("mast-feeder-50__baseline", "mast-feeder-50__lightweight",
          "pier-link-50__baseline", "pier-link-50__lightweight")
 GENERATIONS = 25
+#: Generations of the signal tests: tasks long enough (~1.5 s) that a stop request reaches a
+#: task of a worker process (the parent polls every 0.5 s) before it ends.
+LONG_GENERATIONS = 100
 POLL_S = 0.002
 
 
@@ -71,6 +74,14 @@ def reference(tmp_path_factory):
     sweep_file.write_text(small_sweep_text(), encoding="utf-8")
     run_dir = run_sweep(load_sweep(sweep_file), base / "runs")
     return sweep_file, (run_dir / "front.parquet").read_bytes(), run_dir
+
+
+@pytest.fixture(scope="module")
+def reference_long(reference, tmp_path_factory):
+    """Bytes of front.parquet of an uninterrupted run with ``--generations 100``."""
+    run_dir = run_sweep(load_sweep(reference[0]), tmp_path_factory.mktemp("resume-long"),
+                        generations=LONG_GENERATIONS)
+    return (run_dir / "front.parquet").read_bytes()
 
 
 # ----------------------------------------------------------------------------- helpers
@@ -288,11 +299,11 @@ def checkpoint_generation(run_dir: Path, task: str) -> int | None:
 @pytest.mark.parametrize("signame, workers", [("SIGINT", "1"), ("SIGTERM", "1"),
                                                ("SIGINT", "2")])
 def test_signal_stops_after_checkpoint_and_resume_is_identical(signame, workers, reference,
-                                                               tmp_path, cli):
+                                                               reference_long, tmp_path, cli):
     """The signal arrives once the first task finished and a later one checkpointed
     generation 5 (checkpoints every 5 generations); the stop must leave a checkpoint of a
     later generation, written after the signal, and exit 130."""
-    sweep_file, reference_front, _ = reference
+    sweep_file = reference[0]
     out = tmp_path / "runs"
     run_dir = out / SWEEP_NAME
     log = tmp_path / "stderr.log"
@@ -309,7 +320,7 @@ def test_signal_stops_after_checkpoint_and_resume_is_identical(signame, workers,
         return any(g == every for g in seen.values())
 
     proc = start_sweep(sweep_file, out, "--quiet", "--checkpoint-every", str(every),
-                       "--workers", workers, log=log)
+                       "--workers", workers, "--generations", str(LONG_GENERATIONS), log=log)
     try:
         assert wait_until(proc, ready), log.read_text()
         proc.send_signal(getattr(signal, signame))
@@ -326,12 +337,12 @@ def test_signal_stops_after_checkpoint_and_resume_is_identical(signame, workers,
     assert 1 <= n_done(states) < len(TASKS), states
     signalled = next(t for t, g in seen.items() if g == every)
     assert states[signalled] == "checkpoint", states
-    assert every < checkpoint_generation(run_dir, signalled) < GENERATIONS
+    assert every < checkpoint_generation(run_dir, signalled) < LONG_GENERATIONS
     assert not (run_dir / "front.parquet").exists()
     assert_no_half_written_file(run_dir)
     assert_plain_data(run_dir)
     resume_and_compare(cli, run_dir, finished_before=finished_task_files(run_dir),
-                       reference_front=reference_front)
+                       reference_front=reference_long)
 
 
 # ----------------------------------------------------------------------------- in-process
