@@ -163,9 +163,11 @@ STATE_FILE = "run-state.json"
 class SweepInterrupted(Exception):
     """The sweep stopped on SIGINT/SIGTERM; checkpoints are on disk."""
 
-    def __init__(self, run_dir: Path, signal_name: str | None):
+    def __init__(self, run_dir: Path, signal_name: str | None, on_cluster: bool = False):
+        kept = ("finished tasks kept (cluster tasks write no checkpoints)" if on_cluster
+                else "checkpoints written")
         super().__init__(f"{run_dir}: interrupted ({signal_name or 'stop requested'}); "
-                         f"checkpoints written. Continue with: cablefam resume {run_dir}")
+                         f"{kept}. Continue with: cablefam resume {run_dir}")
         self.run_dir = run_dir
 
 
@@ -298,7 +300,7 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
         else:
             run_serial(payload, todo, on_result, progress, stop)
     except TaskInterrupted:
-        raise SweepInterrupted(run_dir, stop.signal_name) from None
+        raise SweepInterrupted(run_dir, stop.signal_name, on_cluster=bool(scheduler)) from None
     finally:
         stop.uninstall()
     ordered = [results[(s.member, s.catalog)] for s in specs]
