@@ -11,7 +11,7 @@ import pyarrow.parquet as pq
 
 from optimizer.catalog import Catalog, load_catalog
 from optimizer.errors import InputError
-from optimizer.sweep import FRONT_FILE, RUN_FILE, read_provenance
+from optimizer.sweep import FRONT_FILE, RUN_FILE, read_json, read_provenance
 
 
 def read_front(run_dir) -> tuple[pd.DataFrame, dict]:
@@ -32,13 +32,7 @@ def read_front(run_dir) -> tuple[pd.DataFrame, dict]:
 
 def read_run_info(run_dir) -> dict:
     """``run.json`` of a run folder."""
-    path = Path(run_dir) / RUN_FILE
-    try:
-        return json.loads(path.read_text(encoding="utf-8"))
-    except FileNotFoundError:
-        raise InputError(f"{run_dir}: not a run folder (no {RUN_FILE})") from None
-    except (json.JSONDecodeError, UnicodeDecodeError) as exc:
-        raise InputError(f"{path}: corrupt JSON ({exc})") from None
+    return read_json(Path(run_dir) / RUN_FILE, f"{run_dir}: not a run folder (no {RUN_FILE})")
 
 
 def run_catalog(run_dir, name: str) -> Catalog:

@@ -182,14 +182,19 @@ def _run_state(sweep: Sweep, settings: SweepSettings) -> dict:
                          "record_evaluated": settings.record_evaluated}}
 
 
-def read_run_state(run_dir) -> dict:
-    path = Path(run_dir) / STATE_FILE
+def read_json(path: Path, missing: str) -> dict:
+    """A JSON file of a run folder; ``missing`` is the message when it does not exist."""
     try:
         return json.loads(path.read_text(encoding="utf-8"))
     except FileNotFoundError:
-        raise InputError(f"{run_dir}: nothing to resume (no {STATE_FILE})") from None
+        raise InputError(missing) from None
     except (json.JSONDecodeError, UnicodeDecodeError) as exc:
         raise InputError(f"{path}: corrupt JSON ({exc})") from None
+
+
+def read_run_state(run_dir) -> dict:
+    return read_json(Path(run_dir) / STATE_FILE,
+                     f"{run_dir}: nothing to resume (no {STATE_FILE})")
 
 
 def check_unchanged(state: dict, sweep: Sweep, force: bool) -> None:
