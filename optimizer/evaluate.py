@@ -65,11 +65,13 @@ def _has(table, *keys):
     return table is not None and all(k in table for k in keys)
 
 
-def electromagnetic(d: Designs, op: OperatingPoint, method="auto") -> dict[str, np.ndarray]:
+def electromagnetic(d: Designs, op: OperatingPoint, method="auto",
+                    reference: Designs | None = None) -> dict[str, np.ndarray]:
     """Line parameters, impedance, attenuation, velocity, skin depths and the DC resistances.
 
-    Resistivities are taken at 20 degC; :func:`evaluate` re-evaluates the line at the
-    operating temperatures when a power is given.
+    The line is evaluated at the resistivities of ``d``; skin depths and DC resistances at
+    those of ``reference`` (default ``d``), so that :func:`evaluate` can give the line at the
+    operating temperatures beside the 20 degC reference values.
     """
     a, b, c = d.inner_radius, d.dielectric_radius, d.shield_radius
     f = op.frequency_hz
@@ -79,7 +81,7 @@ def electromagnetic(d: Designs, op: OperatingPoint, method="auto") -> dict[str, 
                               d.inner.get("relative_permeability", 1.0),
                               d.shield.get("relative_permeability", 1.0), method=method,
                               offset=d.eccentricity, inner_strands=d.inner_strands)
-    return _line_quantities(d, op, lp)
+    return _line_quantities(d, op, lp, d if reference is None else reference)
 
 
 def electrical_inner_radius(d: Designs):
@@ -105,7 +107,8 @@ def _reference_quantities(d: Designs, op: OperatingPoint):
     return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
 
 
-def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
+def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
+                     reference: Designs):
     a, b = d.inner_radius, d.dielectric_radius
     f = op.frequency_hz
     gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
@@ -129,7 +132,7 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters):
         "delay_s_per_m": line.delay_per_metre(gamma.imag, f),
     }
     out = {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
-    out.update(_reference_quantities(d, op))
+    out.update(_reference_quantities(reference, op))
     return out
 
 
@@ -184,8 +187,7 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
                 np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
             dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
             inner_strands=d.inner_strands)
-        out = electromagnetic(hot, op, method)
-        out.update(_reference_quantities(d, op))
+        out = electromagnetic(hot, op, method, reference=d)
     else:
         out = electromagnetic(d, op, method)
     a_el = electrical_inner_radius(d)
