@@ -1,6 +1,7 @@
-"""cablefam's orchestration layer: design files, catalogs, evaluation, search, runs and CLI.
+"""Everything above the physics, in sub-packages whose imports point one way (down):
 
-Imports point down only: ``optimizer.cli`` -> the rest of ``optimizer`` -> ``physics``.
+``cli`` -> ``review`` | ``batch`` -> ``search`` -> ``run_folder`` -> ``inputs`` -> ``model``
+-> (``errors``, ``atomic``, ``cautions``) -> :mod:`cablefam.physics`.
+
+See DEVELOPERS.md for what each sub-package holds and where to add things.
 """
-
-__version__ = "0.1.0"

@@ -13,7 +13,7 @@ import numpy as np
 from scipy import special
 from scipy.constants import mu_0
 
-from physics.skin import skin_depth
+from cablefam.physics.skin import skin_depth
 
 
 def _as_float(*arrays):

@@ -24,7 +24,7 @@ from functools import lru_cache
 import numpy as np
 from scipy import special
 
-from physics.skin import skin_depth
+from cablefam.physics.skin import skin_depth
 
 #: Radius-to-skin-depth ratio above which the asymptotic series replaces the Bessel ratio.
 #: Chosen by measurement against 40-digit mpmath values: at u = 12 with 12 terms the series

@@ -12,9 +12,9 @@ from typing import NamedTuple
 import numpy as np
 from scipy.constants import epsilon_0, mu_0, speed_of_light
 
-from physics.eccentricity import geometry_factor, wheeler_loss_factors
-from physics.internal_impedance import tube_internal_impedance, wire_internal_impedance
-from physics.stranding import (stranded_dc_resistance, stranded_effective_radius,
+from cablefam.physics.eccentricity import geometry_factor, wheeler_loss_factors
+from cablefam.physics.internal_impedance import tube_internal_impedance, wire_internal_impedance
+from cablefam.physics.stranding import (stranded_dc_resistance, stranded_effective_radius,
                                stranded_skin_effect_factor)
 
 
@@ -46,7 +46,7 @@ def capacitance(a, b, relative_permittivity, offset=0.0):
         :math:`\varepsilon_r` of the dielectric [-].
     offset : array_like, optional
         Eccentricity of the centre conductor [m]; :math:`\ln(b/a)` becomes the arccosh form
-        of :func:`physics.eccentricity.geometry_factor`.
+        of :func:`cablefam.physics.eccentricity.geometry_factor`.
 
     References
     ----------
@@ -60,7 +60,7 @@ def inductance_external(a, b, offset=0.0):
     r"""External inductance per unit length, :math:`L_e = \mu_0 \ln(b/a) / (2\pi)` [H m^-1].
 
     With an ``offset`` [m] of the centre conductor, :math:`\ln(b/a)` becomes the arccosh form
-    of :func:`physics.eccentricity.geometry_factor`.
+    of :func:`cablefam.physics.eccentricity.geometry_factor`.
 
     References
     ----------
@@ -103,11 +103,11 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
     offset : array_like, optional
         Eccentricity of the centre conductor [m]: external L and C from the arccosh form,
         internal impedances times Wheeler's per-conductor factors
-        (:func:`physics.eccentricity.wheeler_loss_factors`; skin-effect regime).
+        (:func:`cablefam.physics.eccentricity.wheeler_loss_factors`; skin-effect regime).
     inner_strands : array_like of int, optional
         Strand count of the centre conductor (1, 7, 19, 37; ``a`` is then its overall
         radius): external L and C use the effective radius of
-        :func:`physics.stranding.stranded_effective_radius`; the internal impedance is that of
+        :func:`cablefam.physics.stranding.stranded_effective_radius`; the internal impedance is that of
         a solid wire of the overall radius times the stranding skin-effect factor, its
         resistance never below the DC resistance of the strands.
 

@@ -3,7 +3,7 @@ r"""Mass, material cost, outer diameter and DC loop resistance of a coax, per me
 Geometry: centre-conductor radius :math:`a`, dielectric outer radius :math:`b`, shield outer
 radius :math:`c`, jacket outer radius :math:`d` (:math:`d = c`: no jacket). Every layer is a
 full solid annulus; a braid or a foamed dielectric enters through an effective density.
-Everything is per metre; :func:`physics.units.per_m_to_per_km` converts.
+Everything is per metre; :func:`cablefam.physics.units.per_m_to_per_km` converts.
 """
 
 from __future__ import annotations

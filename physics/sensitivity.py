@@ -6,7 +6,7 @@ Analytic first derivatives of the lossless characteristic impedance
     Z_0 = K\Lambda, \qquad K = \frac{\eta_0}{2\pi\sqrt{\varepsilon_r}}, \qquad
     \Lambda = \operatorname{arccosh}X, \qquad X = \frac{a^2 + b^2 - D^2}{2ab}
 
-(:mod:`physics.eccentricity`; :math:`\Lambda = \ln(b/a)` at :math:`D = 0`) and of the
+(:mod:`cablefam.physics.eccentricity`; :math:`\Lambda = \ln(b/a)` at :math:`D = 0`) and of the
 skin-effect conductor attenuation :math:`\alpha_c = R/(2Z_0)`, with respect to the
 centre-conductor radius :math:`a`, the dielectric radius :math:`b`, the offset :math:`D` of the
 centre conductor and the relative permittivity :math:`\varepsilon_r`. The manufacturing spread
@@ -38,7 +38,7 @@ from typing import NamedTuple
 import numpy as np
 from scipy.constants import mu_0, speed_of_light
 
-from physics.eccentricity import geometry_factor
+from cablefam.physics.eccentricity import geometry_factor
 
 
 class GeometryGradient(NamedTuple):
@@ -101,7 +101,7 @@ def _permittivity(relative_permittivity):
 
 
 def _impedance_scale(eps):
-    """K = eta_0 / (2 pi sqrt(eps_r)) [ohm], eta_0 = mu_0 c_0 as in :mod:`physics.line`."""
+    """K = eta_0 / (2 pi sqrt(eps_r)) [ohm], eta_0 = mu_0 c_0 as in :mod:`cablefam.physics.line`."""
     return mu_0 * speed_of_light / (2.0 * np.pi * np.sqrt(eps))
 
 
@@ -190,7 +190,7 @@ def resistance_skin_effect_eccentric(a, b, surface_resistance_inner,
         Centre-conductor radius and dielectric (shield inner) radius [m], ``0 < a < b``.
     surface_resistance_inner, surface_resistance_shield : array_like
         Surface resistances :math:`R_{s,i}`, :math:`R_{s,s}` of the two conductors [ohm]
-        (:func:`physics.skin.surface_resistance`).
+        (:func:`cablefam.physics.skin.surface_resistance`).
     offset : array_like, optional
         Axis offset :math:`D` [m], ``|D| < b - a``.
 
@@ -210,7 +210,7 @@ def resistance_skin_effect_eccentric(a, b, surface_resistance_inner,
 
     which is :math:`R_{s,i}/(2\pi a) + R_{s,s}/(2\pi b)` at :math:`D = 0` (Table 2.1 of
     [2]_) and, for equal surface resistances, that times
-    :func:`physics.eccentricity.wheeler_loss_factor`. Skin-effect regime only: valid where
+    :func:`cablefam.physics.eccentricity.wheeler_loss_factor`. Skin-effect regime only: valid where
     the skin depth is small against :math:`a` and against the narrowest gap
     :math:`b - a - D`.
 
@@ -257,7 +257,7 @@ def attenuation_conductor_skin_effect(a, b, surface_resistance_inner,
     result, Sec. 2.7 of [1]_). At :math:`D = 0`:
     :math:`\alpha_c = \sqrt{\varepsilon_r}\,(R_{s,i}/a + R_{s,s}/b)/(2\eta_0\ln(b/a))`.
     Skin-effect regime only (skin depth small against both radii); the exact line model is
-    :mod:`physics.line`.
+    :mod:`cablefam.physics.line`.
 
     References
     ----------

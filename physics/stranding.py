@@ -234,8 +234,8 @@ def stranded_effective_radius(overall_radius, n_strands):
     numpy.ndarray
         :math:`a_\mathrm{eff} = \kappa_k a_o` [m], :math:`\kappa_k` =
         :data:`EFFECTIVE_RADIUS_FACTORS`; use it for ``a`` in
-        :func:`physics.line.capacitance`, :func:`physics.line.inductance_external` and
-        :func:`physics.line.characteristic_impedance_lossless`. The overall radius stays the
+        :func:`cablefam.physics.line.capacitance`, :func:`cablefam.physics.line.inductance_external` and
+        :func:`cablefam.physics.line.characteristic_impedance_lossless`. The overall radius stays the
         one for the dielectric's inner surface, mass and fit.
 
     Raises

@@ -46,7 +46,7 @@ from typing import NamedTuple
 import numpy as np
 from scipy.optimize import elementwise
 
-from physics.line import characteristic_impedance, line_parameters
+from cablefam.physics.line import characteristic_impedance, line_parameters
 
 #: Conductor temperature [degC] above which a design is taken as thermally run away (no
 #: steady state worth reporting; every cable material has melted or burnt far below it).
@@ -477,7 +477,7 @@ def _solve_flat(p, power, tolerance_k, max_iterations, runaway_temperature_c):
         new_c = new_s + (wi + 0.5 * wd) * t1[i]
         if np.isnan(new_c).any():  # checked inputs cannot give NaN: a fault upstream
             k = int(i[np.flatnonzero(np.isnan(new_c))[0]])
-            raise FloatingPointError(f"NaN heat from physics.line for design element {k}")
+            raise FloatingPointError(f"NaN heat from cablefam.physics.line for design element {k}")
         done = (np.abs(new_c - theta_c[i]) <= tolerance_k) & (
             np.abs(new_s - theta_s[i]) <= tolerance_k)
         runaway = ~(new_c <= runaway_temperature_c)
@@ -533,7 +533,7 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
         ``d == c``.
     offset, inner_strands : array_like, optional
         Eccentricity [m] and strand count of the centre conductor, passed to
-        :func:`physics.line.line_parameters` (defaults: concentric, solid).
+        :func:`cablefam.physics.line.line_parameters` (defaults: concentric, solid).
     inner_relative_permeability, shield_relative_permeability : array_like, optional
         Relative permeabilities of the conductors [-].
     tolerance_k : float, optional
@@ -565,7 +565,7 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
     1. :math:`\rho_i = \rho_{i,20}[1 + \alpha_i(\theta_c - 20)]`, likewise :math:`\rho_s` at
        :math:`\theta_{sh}` (clause 2.1.1 of [1]_);
     2. :math:`R_i, R_s, G` and the complex :math:`Z_0` from
-       :func:`physics.line.line_parameters` (exact skin-effect resistance);
+       :func:`cablefam.physics.line.line_parameters` (exact skin-effect resistance);
     3. :math:`I^2 = P/|Z_0|`, :math:`V^2 = P|Z_0|`, :math:`W_i = I^2R_i`, :math:`W_s = I^2R_s`,
        :math:`W_d = GV^2`, :math:`W = W_i + W_s + W_d`;
     4. :math:`\Delta\theta_s = (W/(\pi D_e h))^{4/5}`, i.e. :math:`W T_4` with :math:`T_4` of
@@ -638,7 +638,7 @@ def max_power(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
         ``None``: no jacket limit. Ignored where ``d == c`` (no jacket).
     offset, inner_strands : array_like, optional
         Eccentricity [m] and strand count of the centre conductor, passed to
-        :func:`physics.line.line_parameters` (defaults: concentric, solid).
+        :func:`cablefam.physics.line.line_parameters` (defaults: concentric, solid).
     inner_relative_permeability, shield_relative_permeability : array_like, optional
         As in :func:`coax_thermal_state` [-].
     tolerance_k, max_iterations : optional

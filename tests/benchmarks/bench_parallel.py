@@ -52,11 +52,12 @@ import tempfile  # noqa: E402
 import time  # noqa: E402
 from pathlib import Path  # noqa: E402
 
-import catalogs  # noqa: E402
-from optimizer.checkpoint import TaskStore  # noqa: E402
-from optimizer.search import run_task, task_seed  # noqa: E402
-from optimizer.sweep import RUN_FILE, run_sweep  # noqa: E402
-from optimizer.sweep_spec import demo_sweep_path, load_sweep  # noqa: E402
+import cablefam.catalogs as catalogs  # noqa: E402
+from cablefam.optimizer.batch.task_store import TaskStore  # noqa: E402
+from cablefam.optimizer.search.task import run_task, task_seed  # noqa: E402
+from cablefam.optimizer.batch.sweep import run_sweep  # noqa: E402
+from cablefam.optimizer.run_folder.files import RUN_FILE  # noqa: E402
+from cablefam.optimizer.inputs.sweep_spec import demo_sweep_path, load_sweep  # noqa: E402
 
 CATALOG_DIR = Path(catalogs.__file__).resolve().parent
 LARGE_CATALOGS = ("baseline.toml", "lightweight.toml", "high-temperature.toml")
@@ -206,7 +207,7 @@ def kill_and_resume(sweep_file: Path, out: Path, n_tasks: int, workers: int) -> 
     the tasks are finished; time the resume."""
     name = load_sweep(sweep_file).spec.name
     run_dir = out / name
-    cmd = [sys.executable, "-m", "optimizer.cli"]
+    cmd = [sys.executable, "-m", "cablefam"]
     proc = subprocess.Popen(cmd + ["sweep", str(sweep_file), "--out", str(out), "--quiet",
                                    "--workers", str(workers)],
                             stdout=subprocess.DEVNULL, stderr=subprocess.PIPE,

@@ -7,7 +7,7 @@ Measures, at one frequency, designs per second of
 2. the same with ``method="exact"`` (scaled Bessel functions everywhere);
 3. a per-design Python loop over a subset, calling the same functions with scalars;
 4. the vectorized path in chunks;
-5. the full evaluation ``optimizer.evaluate.evaluate`` (EM + thermal fixed point + mass, power
+5. the full evaluation ``cablefam.optimizer.model.evaluate.evaluate`` (EM + thermal fixed point + mass, power
    given, ``include_max_power=False``), and ``physics.thermal.max_power`` on a smaller set;
 
 plus the largest relative difference between the paths, and a profile of where the time goes.
@@ -45,10 +45,10 @@ from pathlib import Path  # noqa: E402
 import numpy as np  # noqa: E402
 import scipy  # noqa: E402
 
-from optimizer.catalog import load_catalog  # noqa: E402
-from optimizer.evaluate import Designs, OperatingPoint, evaluate  # noqa: E402
-from physics import thermal  # noqa: E402
-from physics.line import (characteristic_impedance, line_parameters,  # noqa: E402
+from cablefam.optimizer.inputs.catalog import load_catalog  # noqa: E402
+from cablefam.optimizer.model.evaluate import Designs, OperatingPoint, evaluate  # noqa: E402
+from cablefam.physics import thermal  # noqa: E402
+from cablefam.physics.line import (characteristic_impedance, line_parameters,  # noqa: E402
                           propagation_constant)
 
 #: Targets stated beside the figures.
@@ -77,7 +77,7 @@ COMPARED = ("r", "l", "z0", "attenuation")
 
 def _record(spec):
     file_name, kind, material_id = spec
-    path = Path(str(resources.files("catalogs").joinpath(file_name)))
+    path = Path(str(resources.files("cablefam.catalogs").joinpath(file_name)))
     return load_catalog(path).get(kind, material_id, str(path))
 
 
@@ -284,8 +284,8 @@ def main(argv=None):
                "seed": args.seed, "load_average_1min_at_start": os.getloadavg()[0]}
 
     # skin-depth regime of the population (the auto path switches at a/delta = 12)
-    from physics.internal_impedance import ASYMPTOTIC_MIN_RATIO
-    from physics.skin import skin_depth
+    from cablefam.physics.internal_impedance import ASYMPTOTIC_MIN_RATIO
+    from cablefam.physics.skin import skin_depth
     u_inner = d.inner_radius / skin_depth(d.inner["resistivity_ohm_m"], f)
     u_shield = d.dielectric_radius / skin_depth(d.shield["resistivity_ohm_m"], f)
     share_exact = float(np.mean(u_inner < ASYMPTOTIC_MIN_RATIO))

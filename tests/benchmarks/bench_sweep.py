@@ -45,13 +45,14 @@ from pymoo.indicators.hv import HV  # noqa: E402
 from pymoo.util.nds.non_dominated_sorting import NonDominatedSorting  # noqa: E402
 from scipy.constants import mu_0, speed_of_light  # noqa: E402
 
-from optimizer.materials import read_toml  # noqa: E402
-from optimizer.objectives import objective_matrix  # noqa: E402
-from optimizer.problem import MemberProblem  # noqa: E402
-from optimizer.search import (_RecordingProblem, make_algorithm, run_task,  # noqa: E402
+from cablefam.optimizer.inputs.materials import read_toml  # noqa: E402
+from cablefam.optimizer.model.objectives import objective_matrix  # noqa: E402
+from cablefam.optimizer.search.problem import MemberProblem  # noqa: E402
+from cablefam.optimizer.search.task import (_RecordingProblem, make_algorithm, run_task,  # noqa: E402
                               task_seed)
-from optimizer.sweep import RUN_FILE, run_sweep  # noqa: E402
-from optimizer.sweep_spec import demo_sweep_path, load_sweep, parse_sweep  # noqa: E402
+from cablefam.optimizer.batch.sweep import run_sweep  # noqa: E402
+from cablefam.optimizer.run_folder.files import RUN_FILE  # noqa: E402
+from cablefam.optimizer.inputs.sweep_spec import demo_sweep_path, load_sweep, parse_sweep  # noqa: E402
 
 #: The task of part 2: a member of the demo sweep, a catalog, and one material per table.
 HV_MEMBER = "mast-feeder-50"

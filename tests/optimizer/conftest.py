@@ -8,7 +8,7 @@ from pathlib import Path
 
 import pytest
 
-from optimizer.cli import main
+from cablefam.optimizer.cli.app import main
 
 DATA = Path(__file__).parent / "data"
 REPO = Path(__file__).resolve().parents[2]
@@ -34,6 +34,6 @@ def cli(capsys):
 
 
 def run_subprocess(*argv, cwd=None, timeout=300):
-    """Run ``python -m optimizer.cli`` in a fresh interpreter; return the CompletedProcess."""
-    return subprocess.run([sys.executable, "-m", "optimizer.cli", *map(str, argv)],
+    """Run ``python -m cablefam.optimizer.cli.app`` in a fresh interpreter; return the CompletedProcess."""
+    return subprocess.run([sys.executable, "-m", "cablefam", *map(str, argv)],
                           capture_output=True, text=True, cwd=cwd, timeout=timeout)

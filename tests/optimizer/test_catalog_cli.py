@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import pytest
 
-from optimizer.catalog import KINDS, catalog_problems, catalog_table, file_sha256, load_catalog
+from cablefam.optimizer.inputs.catalog import KINDS, catalog_problems, catalog_table, file_sha256, load_catalog
 from tests.optimizer.conftest import BUNDLED_CATALOGS, DATA
 
 MINIMAL = (DATA / "minimal_catalog.toml").read_text()

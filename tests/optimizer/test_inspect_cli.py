@@ -10,9 +10,9 @@ import pandas as pd
 import pytest
 from scipy.constants import mu_0
 
-from optimizer.cautions import CAUTION_LINES
-from optimizer.inspection import REPORT_LAYOUT, engineering, inspect_design, to_json_object
-from optimizer.sweep_spec import demo_design_path
+from cablefam.optimizer.cautions import CAUTION_LINES
+from cablefam.optimizer.review.inspection import REPORT_LAYOUT, engineering, inspect_design, to_json_object
+from cablefam.optimizer.inputs.sweep_spec import demo_design_path
 from tests.optimizer.conftest import CATALOG_DIR, DATA, run_subprocess
 
 DEMO = demo_design_path()
@@ -349,13 +349,13 @@ def test_subprocess_debug_shows_traceback(tmp_path):
     proc = run_subprocess("--debug", "inspect", path)
     assert proc.returncode not in (0, 2)
     assert "Traceback (most recent call last)" in proc.stderr
-    assert "optimizer.errors.InputError" in proc.stderr
+    assert "cablefam.optimizer.errors.InputError" in proc.stderr
     assert "frequency_hz = '100e6'" in proc.stderr
 
 
 def test_debug_in_process_raises_the_input_error(tmp_path):
-    from optimizer.cli import main
-    from optimizer.errors import InputError
+    from cablefam.optimizer.cli.app import main
+    from cablefam.optimizer.errors import InputError
 
     path = tmp_path / "missing.toml"
     with pytest.raises(InputError, match="file not found"):

@@ -17,8 +17,8 @@ from pathlib import Path
 
 import pytest
 
-from optimizer.sweep import resume_run, run_sweep
-from optimizer.sweep_spec import load_sweep
+from cablefam.optimizer.batch.sweep import resume_run, run_sweep
+from cablefam.optimizer.inputs.sweep_spec import load_sweep
 from tests.optimizer.test_resume import SWEEP_NAME, TASKS, small_sweep_text
 
 
@@ -141,7 +141,7 @@ def session_pids(sid: int) -> list[int]:
 
 def _start_sweep(sweep_file, out, *extra):
     """A real sweep process in a session of its own (so its workers can be found)."""
-    return subprocess.Popen([sys.executable, "-m", "optimizer.cli", "sweep", str(sweep_file),
+    return subprocess.Popen([sys.executable, "-m", "cablefam", "sweep", str(sweep_file),
                              "--out", str(out), "--quiet", *extra],
                             stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True,
                             start_new_session=True)

@@ -23,12 +23,12 @@ from pathlib import Path
 import pyarrow.parquet as pq
 import pytest
 
-import catalogs
-import optimizer
-from optimizer import execution
-from optimizer.checkpoint import TaskStore
-from optimizer.sweep import SweepInterrupted, resume_run, run_sweep
-from optimizer.sweep_spec import demo_sweep_path, load_sweep
+import cablefam.catalogs as catalogs
+import cablefam.optimizer
+from cablefam.optimizer.batch import workers as execution
+from cablefam.optimizer.batch.task_store import TaskStore
+from cablefam.optimizer.batch.sweep import SweepInterrupted, resume_run, run_sweep
+from cablefam.optimizer.inputs.sweep_spec import demo_sweep_path, load_sweep
 
 CATALOG_DIR = Path(catalogs.__file__).resolve().parent
 SWEEP_NAME = "resume-small"
@@ -164,7 +164,7 @@ def start_sweep(sweep_file: Path, out: Path, *extra: str, log: Path) -> subproce
     """A real ``cablefam sweep`` process (fresh interpreter), stderr into ``log``."""
     with open(log, "w") as fh:
         return subprocess.Popen(
-            [sys.executable, "-m", "optimizer.cli", "sweep", str(sweep_file), "--out", str(out),
+            [sys.executable, "-m", "cablefam", "sweep", str(sweep_file), "--out", str(out),
              *extra], stdout=subprocess.DEVNULL, stderr=fh)
 
 
@@ -438,10 +438,10 @@ def test_checkpoints_are_plain_data(monkeypatch, reference, tmp_path):
 def test_package_has_no_pickle():
     pattern = re.compile(r"^\s*(import|from)\s+(c?pickle|dill|cloudpickle|joblib|shelve)\b",
                          re.MULTILINE)
-    for path in Path(optimizer.__file__).parent.rglob("*.py"):
+    for path in Path(cablefam.optimizer.__file__).parent.rglob("*.py"):
         assert not pattern.search(path.read_text(encoding="utf-8")), path
     src = "\n".join(p.read_text(encoding="utf-8")
-                    for p in Path(optimizer.__file__).parent.rglob("*.py"))
+                    for p in Path(cablefam.optimizer.__file__).parent.rglob("*.py"))
     assert "np.save(" not in src and "allow_pickle=True" not in src
 
 

@@ -18,12 +18,13 @@ from pymoo.util.nds.non_dominated_sorting import NonDominatedSorting
 from scipy import optimize
 from scipy.constants import mu_0, speed_of_light
 
-from optimizer.constraints import CONSTRAINTS
-from optimizer.objectives import OBJECTIVES, objective_matrix
-from optimizer.problem import MemberProblem
-from optimizer.sweep import read_provenance, run_sweep
-from optimizer.sweep_spec import demo_sweep_path, load_sweep
-from physics.skin import skin_depth
+from cablefam.optimizer.model.constraints import CONSTRAINTS
+from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix
+from cablefam.optimizer.search.problem import MemberProblem
+from cablefam.optimizer.batch.sweep import run_sweep
+from cablefam.optimizer.run_folder.files import read_provenance
+from cablefam.optimizer.inputs.sweep_spec import demo_sweep_path, load_sweep
+from cablefam.physics.skin import skin_depth
 from tests.optimizer.conftest import CATALOG_DIR, run_subprocess
 
 # Source: IEC 60028, annealed copper resistivity at 20 degC, 1/58 ohm mm^2 m^-1.
@@ -265,7 +266,7 @@ def assert_within_limits(obj, design, member):
 
 @pytest.mark.slow
 def test_front_rows_round_trip_through_design_and_inspect(cli, small_demo_run, tmp_path):
-    from optimizer.design_file import load_design
+    from cablefam.optimizer.inputs.design_file import load_design
 
     df = read_front(small_demo_run)
     assert len(df) > 50 and df["feasible"].all()

@@ -11,10 +11,10 @@ import pytest
 from scipy.constants import mu_0, speed_of_light
 from scipy.stats import norm
 
-from optimizer.errors import InputError
-from optimizer.sweep import run_sweep
-from optimizer.sweep_spec import demo_sweep_path, load_sweep
-from optimizer.tolerance import (Spread, common_draws, impedance_mean_sd_analytic,
+from cablefam.optimizer.errors import InputError
+from cablefam.optimizer.batch.sweep import run_sweep
+from cablefam.optimizer.inputs.sweep_spec import demo_sweep_path, load_sweep
+from cablefam.optimizer.model.tolerance import (Spread, common_draws, impedance_mean_sd_analytic,
                                  impedance_yield_analytic, impedance_yield_monte_carlo)
 
 ETA_0 = mu_0 * speed_of_light

@@ -13,13 +13,13 @@ import numpy as np
 import pytest
 from scipy.constants import epsilon_0, mu_0, speed_of_light
 
-from physics.eccentricity import (
+from cablefam.physics.eccentricity import (
     characteristic_impedance_eccentric,
     geometry_factor,
     wheeler_loss_factor,
 )
-from physics.line import capacitance, characteristic_impedance_lossless, inductance_external
-from physics.sensitivity import geometry_factor_gradient, resistance_skin_effect_eccentric
+from cablefam.physics.line import capacitance, characteristic_impedance_lossless, inductance_external
+from cablefam.physics.sensitivity import geometry_factor_gradient, resistance_skin_effect_eccentric
 
 # Designs (a, b, D) [m]: RG-58-like and 7 mm air-line-like radii, offsets up to 70 % of the gap.
 A = np.array([0.45e-3, 0.45e-3, 1.5202e-3, 1.5202e-3, 0.2e-3, 1.0e-3])

@@ -5,7 +5,7 @@ import pytest
 from scipy import integrate
 from scipy.constants import epsilon_0, mu_0
 
-from physics.fields import (
+from cablefam.physics.fields import (
     current_density_ac,
     current_density_dc,
     electric_field,
@@ -14,9 +14,9 @@ from physics.fields import (
     max_peak_voltage,
     peak_electric_field,
 )
-from physics.internal_impedance import tube_internal_impedance, wire_internal_impedance
-from physics.line import capacitance, inductance_external
-from physics.skin import skin_depth
+from cablefam.physics.internal_impedance import tube_internal_impedance, wire_internal_impedance
+from cablefam.physics.line import capacitance, inductance_external
+from cablefam.physics.skin import skin_depth
 
 # Source: IEC 60028, annealed copper resistivity at 20 degC, 1/58 ohm mm^2 m^-1.
 RHO_CU = 1.7241e-8

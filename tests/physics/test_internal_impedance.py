@@ -5,12 +5,12 @@ import pytest
 from scipy import special
 from scipy.constants import mu_0
 
-from physics.internal_impedance import (
+from cablefam.physics.internal_impedance import (
     ASYMPTOTIC_MIN_RATIO,
     tube_internal_impedance,
     wire_internal_impedance,
 )
-from physics.skin import skin_depth
+from cablefam.physics.skin import skin_depth
 
 # Source: IEC 60028, annealed copper resistivity at 20 degC, 1/58 ohm mm^2 m^-1.
 RHO_CU = 1.7241e-8

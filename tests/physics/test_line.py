@@ -4,7 +4,7 @@ import numpy as np
 import pytest
 from scipy.constants import epsilon_0, mu_0, speed_of_light
 
-from physics.line import (
+from cablefam.physics.line import (
     attenuation_split,
     capacitance,
     characteristic_impedance,
@@ -16,7 +16,7 @@ from physics.line import (
     propagation_constant,
     velocity_factor,
 )
-from physics.skin import skin_depth, surface_resistance
+from cablefam.physics.skin import skin_depth, surface_resistance
 
 # Source: IEC 60028, annealed copper resistivity at 20 degC, 1/58 ohm mm^2 m^-1.
 RHO_CU = 1.7241e-8

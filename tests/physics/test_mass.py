@@ -3,7 +3,7 @@
 import numpy as np
 import pytest
 
-from physics import mass
+from cablefam.physics import mass
 
 # Source: IEC 60028, annealed copper: density 8.89 g/cm^3 at 20 degC.
 COPPER_DENSITY = 8890.0

@@ -5,8 +5,8 @@ import pytest
 from scipy import optimize, special
 from scipy.constants import speed_of_light
 
-from physics import modes
-from physics.modes import (
+from cablefam.physics import modes
+from cablefam.physics.modes import (
     te11_cutoff_frequency,
     te11_cutoff_frequency_approx,
     te11_cutoff_wavenumber,

@@ -11,9 +11,9 @@ import numpy as np
 import pytest
 from scipy import optimize
 
-from physics.fields import max_peak_voltage
-from physics.line import characteristic_impedance_lossless, line_parameters, propagation_constant
-from physics.skin import skin_depth
+from cablefam.physics.fields import max_peak_voltage
+from cablefam.physics.line import characteristic_impedance_lossless, line_parameters, propagation_constant
+from cablefam.physics.skin import skin_depth
 
 # Source: IEC 60028, annealed copper resistivity at 20 degC, 1/58 ohm mm^2 m^-1.
 RHO_CU = 1.7241e-8

@@ -4,16 +4,16 @@ import numpy as np
 import pytest
 from scipy.constants import mu_0, speed_of_light
 
-from physics.eccentricity import characteristic_impedance_eccentric
-from physics.line import characteristic_impedance_lossless, line_parameters, propagation_constant
-from physics.sensitivity import (
+from cablefam.physics.eccentricity import characteristic_impedance_eccentric
+from cablefam.physics.line import characteristic_impedance_lossless, line_parameters, propagation_constant
+from cablefam.physics.sensitivity import (
     attenuation_conductor_skin_effect,
     attenuation_sensitivity,
     geometry_factor_gradient,
     impedance_sensitivity,
     resistance_skin_effect_eccentric,
 )
-from physics.skin import skin_depth, surface_resistance
+from cablefam.physics.skin import skin_depth, surface_resistance
 
 # Source: IEC 60028, annealed copper resistivity at 20 degC, 1/58 ohm mm^2 m^-1.
 RHO_CU = 1.7241e-8
@@ -180,7 +180,7 @@ def test_optimum_of_attenuation_at_fixed_shield_radius():
 
 
 def test_eccentric_resistance_equals_wheeler_factor_times_concentric():
-    from physics.eccentricity import wheeler_loss_factor
+    from cablefam.physics.eccentricity import wheeler_loss_factor
 
     r = resistance_skin_effect_eccentric(A, B, RS_I, RS_I, D)
     expected = RS_I * (1.0 / A + 1.0 / B) / (2.0 * np.pi) * wheeler_loss_factor(A, B, D)

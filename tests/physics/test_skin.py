@@ -5,7 +5,7 @@ import pytest
 from scipy.constants import mu_0
 from skrf.tlineFunctions import skin_depth as skrf_skin_depth
 
-from physics.skin import skin_depth, surface_resistance
+from cablefam.physics.skin import skin_depth, surface_resistance
 
 # Source: IEC 60028:1925, International Standard of Resistance for Copper: annealed copper
 # at 20 degC has a volume resistivity of 1/58 ohm mm^2 m^-1 = 1.7241e-8 ohm m (100 % IACS).

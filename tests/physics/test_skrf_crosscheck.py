@@ -26,7 +26,7 @@ in the Bessel-function ratios near a/delta ~ 1), and far below any physical diff
 import numpy as np
 import pytest
 
-from physics.line import (
+from cablefam.physics.line import (
     characteristic_impedance,
     characteristic_impedance_lossless,
     line_parameters,

@@ -12,8 +12,8 @@ with a closed-form answer (two touching wires).
 import numpy as np
 import pytest
 
-from physics.line import characteristic_impedance_lossless
-from physics.stranding import (
+from cablefam.physics.line import characteristic_impedance_lossless
+from cablefam.physics.stranding import (
     DEFAULT_LAY_RATIO,
     EFFECTIVE_RADIUS_FACTORS,
     LAYUPS,

@@ -3,8 +3,8 @@
 import numpy as np
 import pytest
 
-from physics import thermal
-from physics.line import characteristic_impedance, line_parameters
+from cablefam.physics import thermal
+from cablefam.physics.line import characteristic_impedance, line_parameters
 
 # Source: IEC 60028, international standard of annealed copper: 1/58 ohm mm^2 m^-1 at 20 degC,
 # constant-mass temperature coefficient 0.00393 K^-1 (also IEC 60287-1-1, Table 1).

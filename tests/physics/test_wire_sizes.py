@@ -6,7 +6,7 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from physics.wire_sizes import awg_diameter, awg_gauge_number, awg_gauges, snap_to_sizes
+from cablefam.physics.wire_sizes import awg_diameter, awg_gauge_number, awg_gauges, snap_to_sizes
 
 CATALOG = Path(__file__).resolve().parents[2] / "catalogs" / "wire-sizes" / "standard-sizes.toml"
 

@@ -7,8 +7,10 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from optimizer.sweep import FRONT_FILE, RUN_FILE, read_provenance, run_sweep, write_parquet
-from optimizer.sweep_spec import demo_sweep_path, load_sweep
+from cablefam.optimizer.batch.sweep import run_sweep
+
+from cablefam.optimizer.run_folder.files import FRONT_FILE, RUN_FILE, read_provenance, write_parquet
+from cablefam.optimizer.inputs.sweep_spec import demo_sweep_path, load_sweep
 
 #: Tiny sweeps: enough for fronts of a few designs per task, about 2 s each.
 TINY = dict(generations=5, population=12)

@@ -4,12 +4,12 @@ import json
 
 import pytest
 
-from optimizer.cli import main
-from optimizer.compare import compare_runs, comparison_to_json
-from optimizer.pick import pick, picks_to_json
-from optimizer.run_folder import read_front
-from optimizer.runs_index import list_runs, runs_to_json
-from optimizer.sweep import FRONT_FILE, RUN_FILE
+from cablefam.optimizer.cli.app import main
+from cablefam.optimizer.review.compare import compare_runs, comparison_to_json
+from cablefam.optimizer.review.pick import pick, picks_to_json
+from cablefam.optimizer.run_folder.reader import read_front
+from cablefam.optimizer.run_folder.index import list_runs, runs_to_json
+from cablefam.optimizer.run_folder.files import FRONT_FILE, RUN_FILE
 
 
 def run_cli(capsys, *args):

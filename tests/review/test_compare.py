@@ -1,12 +1,12 @@
-"""Comparing fronts of catalogs and runs (optimizer.compare)."""
+"""Comparing fronts of catalogs and runs (cablefam.optimizer.review.compare)."""
 
 import numpy as np
 import pytest
 from pymoo.indicators.hv import HV
 
-from optimizer.compare import REFERENCE_FACTOR, compare_runs, comparison_to_json
-from optimizer.errors import InputError
-from optimizer.sweep import FRONT_FILE, read_provenance
+from cablefam.optimizer.review.compare import REFERENCE_FACTOR, compare_runs, comparison_to_json
+from cablefam.optimizer.errors import InputError
+from cablefam.optimizer.run_folder.files import FRONT_FILE, read_provenance
 
 from .conftest import copy_run_with_provenance, synthetic_run
 

@@ -1,12 +1,12 @@
-"""Picking candidates from a run's front (optimizer.pick)."""
+"""Picking candidates from a run's front (cablefam.optimizer.review.pick)."""
 
 import numpy as np
 import pytest
 
-from optimizer.design_export import select_row
-from optimizer.errors import InputError
-from optimizer.pick import pick, picks_to_json
-from optimizer.run_folder import read_front
+from cablefam.optimizer.review.design_export import select_row
+from cablefam.optimizer.errors import InputError
+from cablefam.optimizer.review.pick import pick, picks_to_json
+from cablefam.optimizer.run_folder.reader import read_front
 
 from .conftest import synthetic_run
 

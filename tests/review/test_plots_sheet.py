@@ -9,13 +9,13 @@ import xml.etree.ElementTree as ET
 from pathlib import Path
 
 
-from optimizer.cautions import CAUTION_LINES
-from optimizer.compare import compare_runs
-from optimizer.inspection import REPORT_LAYOUT
-from optimizer.pick import pick
-from optimizer.run_folder import read_front
-from optimizer.plots import DPI, FIGURE_SIZE_IN, plot_comparison, plot_run
-from optimizer.sheet import write_sheets
+from cablefam.optimizer.cautions import CAUTION_LINES
+from cablefam.optimizer.review.compare import compare_runs
+from cablefam.optimizer.review.inspection import REPORT_LAYOUT
+from cablefam.optimizer.review.pick import pick
+from cablefam.optimizer.run_folder.reader import read_front
+from cablefam.optimizer.review.plots import DPI, FIGURE_SIZE_IN, plot_comparison, plot_run
+from cablefam.optimizer.review.sheet import write_sheets
 
 PNG_SIGNATURE = b"\x89PNG\r\n\x1a\n"
 EXPECTED_PX = (round(FIGURE_SIZE_IN[0] * DPI), round(FIGURE_SIZE_IN[1] * DPI))
@@ -53,7 +53,7 @@ def test_plot_command_needs_no_display(tiny_run, tmp_path):
     env = {k: v for k, v in os.environ.items() if k not in ("DISPLAY", "WAYLAND_DISPLAY",
                                                             "MPLBACKEND")}
     out = tmp_path / "p"
-    proc = subprocess.run([sys.executable, "-m", "optimizer.cli", "plot", str(tiny_run),
+    proc = subprocess.run([sys.executable, "-m", "cablefam", "plot", str(tiny_run),
                            "--out", str(out)], env=env, capture_output=True, text=True,
                           timeout=120)
     assert proc.returncode == 0, proc.stderr

@@ -6,7 +6,7 @@ import numpy as np
 import pytest
 from pymoo.indicators.hv import HV
 
-from optimizer import tradeoff
+from cablefam.optimizer.review import tradeoff
 
 
 def test_knee_of_parabola_front_is_the_analytic_point():

@@ -1,0 +1,145 @@
+"""Material catalogs: ``[catalog]`` plus ``[conductor.<id>]``, ``[dielectric.<id>]``,
+``[jacket.<id>]`` tables in TOML (keys: :mod:`cablefam.optimizer.inputs.materials`)."""
+
+from __future__ import annotations
+
+import hashlib
+import tomllib
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from pydantic import ValidationError
+
+from cablefam.optimizer.errors import InputError
+from cablefam.optimizer.inputs.materials import (CatalogConductor, CatalogDielectric, CatalogJacket, read_toml,
+                                 validation_problems)
+
+#: Kind of material -> record model. The table names are a contract.
+KINDS = {"conductor": CatalogConductor, "dielectric": CatalogDielectric, "jacket": CatalogJacket}
+_HEADER_KEYS = {"name", "description", "source"}
+
+
+@dataclass(frozen=True)
+class Catalog:
+    """A validated catalog: materials by kind and id, with the file's SHA-256."""
+
+    name: str
+    description: str
+    path: Path
+    sha256: str
+    materials: dict[str, dict[str, object]] = field(default_factory=dict)
+
+    def get(self, kind: str, material_id: str, where: str):
+        """The record of ``kind`` and ``material_id``, or an InputError naming what exists."""
+        table = self.materials[kind]
+        if material_id not in table:
+            known = ", ".join(sorted(table)) or "none"
+            raise InputError(f"{where}: {kind} id {material_id!r} is not in catalog "
+                             f"{self.path} (it has: {known})")
+        return table[material_id]
+
+
+def file_sha256(path) -> str:
+    """SHA-256 of a file's bytes, hex."""
+    return hashlib.sha256(Path(path).read_bytes()).hexdigest()
+
+
+def catalog_problems(path) -> tuple[list[str], Catalog | None]:
+    """All problems of a catalog file, one line each, and the catalog when there are none."""
+    path = Path(path)
+    try:
+        raw = read_toml(path)
+    except InputError as exc:
+        return [str(exc)], None
+    return _problems_of_raw(raw, path, file_sha256(path))
+
+
+def catalog_from_text(text: str, path) -> Catalog:
+    """A catalog from its TOML text (as shipped to remote workers); ``path`` labels messages."""
+    try:
+        raw = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise InputError(f"{path}: not valid TOML ({exc})") from None
+    problems, catalog = _problems_of_raw(raw, Path(path),
+                                         hashlib.sha256(text.encode("utf-8")).hexdigest())
+    if problems:
+        raise InputError(problems[0])
+    return catalog
+
+
+def _problems_of_raw(raw: dict, path: Path, sha256: str) -> tuple[list[str], Catalog | None]:
+    problems: list[str] = []
+    header = raw.get("catalog")
+    if not isinstance(header, dict):
+        problems.append(f"{path}: [catalog]: required table is missing")
+        header = {}
+    else:
+        for key in header:
+            if key not in _HEADER_KEYS:
+                problems.append(f"{path}: [catalog] {key} = {header[key]!r}: unknown key")
+        if not isinstance(header.get("name"), str):
+            problems.append(f"{path}: [catalog] name = {header.get('name')!r}: "
+                            "must be a string")
+    for key in raw:
+        if key != "catalog" and key not in KINDS:
+            problems.append(f"{path}: [{key}]: unknown table (allowed: catalog, "
+                            + ", ".join(KINDS) + ")")
+    materials: dict[str, dict[str, object]] = {}
+    for kind, model in KINDS.items():
+        materials[kind] = {}
+        entries = raw.get(kind, {})
+        if not isinstance(entries, dict):
+            problems.append(f"{path}: [{kind}] must hold tables [{kind}.<id>]")
+            continue
+        for material_id, data in entries.items():
+            table = f"{kind}.{material_id}"
+            if not isinstance(data, dict):
+                problems.append(f"{path}: [{kind}] {material_id} = {data!r}: must be a table "
+                                f"[{table}]")
+                continue
+            try:
+                materials[kind][material_id] = model.model_validate(data)
+            except ValidationError as exc:
+                problems.extend(validation_problems(exc, str(path), table))
+    if problems:
+        return problems, None
+    return [], Catalog(name=header["name"], description=header.get("description", ""),
+                       path=path, sha256=sha256, materials=materials)
+
+
+def load_catalog(path) -> Catalog:
+    """Load and validate a catalog; the first problem raises :class:`InputError`."""
+    problems, catalog = catalog_problems(path)
+    if problems:
+        more = f" (and {len(problems) - 1} more: run `cablefam catalog check`)" if len(
+            problems) > 1 else ""
+        raise InputError(problems[0] + more)
+    return catalog
+
+
+def catalog_table(catalog: Catalog) -> str:
+    """A plain-text table of every material and its key properties."""
+    rows = [("kind", "id", "name", "key properties", "price/kg")]
+    for kind, table in catalog.materials.items():
+        for mid, m in table.items():
+            if kind == "conductor":
+                props = (f"rho={m.resistivity_ohm_m:.4g} ohm m, "
+                         f"alpha={m.temperature_coefficient_per_k:.4g} /K, "
+                         f"mu_r={m.relative_permeability:g}, {m.density_kg_per_m3:g} kg/m3")
+            elif kind == "dielectric":
+                props = (f"eps_r={m.relative_permittivity:g}, tan_d={m.loss_tangent:.3g}, "
+                         f"E_bd={m.dielectric_strength_v_per_m / 1e6:g} kV/mm, "
+                         f"max {m.max_temperature_c:g} degC, rho_T={m.thermal_resistivity_k_m_per_w:g}"
+                         f" K m/W, {m.density_kg_per_m3:g} kg/m3")
+            else:
+                props = (f"rho_T={m.thermal_resistivity_k_m_per_w:g} K m/W, max "
+                         f"{m.max_temperature_c:g} degC, {m.density_kg_per_m3:g} kg/m3")
+            rows.append((kind, mid, m.name or "", props, f"{m.price_per_kg:g}"))
+    widths = [max(len(r[i]) for r in rows) for i in range(len(rows[0]))]
+    lines = [f"catalog {catalog.name!r}: {catalog.description}".rstrip(": "),
+             f"file {catalog.path} (sha256 {catalog.sha256[:12]})", ""]
+    for i, row in enumerate(rows):
+        lines.append("  ".join(cell.ljust(w) for cell, w in zip(row, widths)).rstrip())
+        if i == 0:
+            lines.append("  ".join("-" * w for w in widths))
+    return "\n".join(lines)

@@ -1,0 +1,262 @@
+"""Sweep files: a family of cables (members) x material catalogs, searched in one batch.
+
+Keys are a contract (add freely, rename none); see the README for a full example. Every
+problem is found before any search starts and raises one :class:`InputError` line naming the
+key and the value.
+"""
+
+from __future__ import annotations
+
+import re
+import tomllib
+from dataclasses import dataclass
+from importlib import resources
+from pathlib import Path
+from typing import Annotated, Literal
+
+from pydantic import Field, ValidationError, field_validator
+
+from cablefam.optimizer.inputs.catalog import Catalog, catalog_from_text, load_catalog
+from cablefam.optimizer.errors import InputError
+from cablefam.optimizer.inputs.materials import Positive, Record, Temperature, read_toml, validation_problems
+from cablefam.optimizer.model.objectives import OBJECTIVES
+
+Bounds = Annotated[list[float], Field(min_length=2, max_length=2)]
+#: Geometry decision variables, in the order of the decision vector.
+GEOMETRY_KEYS = ("inner_radius_m", "dielectric_radius_m", "shield_thickness_m",
+                 "jacket_thickness_m")
+#: Material subsets: sweep-file key -> (design table, catalog kind)
+MATERIAL_KEYS = {"conductors": ("conductor", "conductor"), "shields": ("shield", "conductor"),
+                 "dielectrics": ("dielectric", "dielectric"), "jackets": ("jacket", "jacket")}
+_NAME = re.compile(r"^[A-Za-z0-9][A-Za-z0-9._-]*$")
+
+
+def _check_bounds(value, allow_zero=False):
+    lo, hi = value
+    if not (lo >= 0.0 if allow_zero else lo > 0.0):
+        raise ValueError(f"lower bound must be {'>= 0' if allow_zero else '> 0'}")
+    if lo > hi:
+        raise ValueError("lower bound is greater than upper bound")
+    if hi >= 1.0:
+        raise ValueError("upper bound must be < 1 m")
+    return value
+
+
+class SearchSpec(Record):
+    objectives: Annotated[list[str], Field(min_length=1)]
+    population: Annotated[int, Field(ge=4, le=100_000)] = 100
+    generations: Annotated[int, Field(ge=1, le=1_000_000)] = 100
+    inner_radius_m: Bounds
+    dielectric_radius_m: Bounds
+    shield_thickness_m: Bounds
+    jacket_thickness_m: Bounds = [0.0, 0.0]
+    inner_strands: Literal[1, 7, 19, 37] = 1
+    inner_diameter_series: Literal["metric", "metric-fine", "awg"] | None = None
+    conductors: list[str] | None = None
+    shields: list[str] | None = None
+    dielectrics: list[str] | None = None
+    jackets: list[str] | None = None
+
+    @field_validator("objectives")
+    @classmethod
+    def _known_objectives(cls, names):
+        for n in names:
+            if n not in OBJECTIVES:
+                raise ValueError(f"unknown objective {n!r} (known: {', '.join(OBJECTIVES)})")
+        if len(set(names)) != len(names):
+            raise ValueError("objectives repeat")
+        return names
+
+    @field_validator("inner_radius_m", "dielectric_radius_m", "shield_thickness_m")
+    @classmethod
+    def _positive_bounds(cls, v):
+        return _check_bounds(v)
+
+    @field_validator("jacket_thickness_m")
+    @classmethod
+    def _jacket_bounds(cls, v):
+        return _check_bounds(v, allow_zero=True)
+
+
+_SPREAD_VARIABLES = ("inner_radius", "dielectric_radius", "eccentricity", "relative_permittivity")
+
+
+class ToleranceSpec(Record):
+    """Manufacturing spread: a standard deviation (``*_sd``) or a +/- band (``*_band``, uniform)
+    per variable; lengths in metres, the permittivity spread relative to its value."""
+
+    method: Literal["monte-carlo", "analytic"] = "monte-carlo"
+    samples: Annotated[int, Field(ge=10, le=1_000_000)] = 1000
+    inner_radius_sd_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    inner_radius_band_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    dielectric_radius_sd_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    dielectric_radius_band_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    eccentricity_sd_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    eccentricity_band_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
+    relative_permittivity_sd: Annotated[float, Field(ge=0, lt=0.5)] = 0.0
+    relative_permittivity_band: Annotated[float, Field(ge=0, lt=0.5)] = 0.0
+
+    def spread(self):
+        """The :class:`cablefam.optimizer.model.tolerance.Spread` these keys describe."""
+        from cablefam.optimizer.model.tolerance import Spread
+
+        values, uniform = {}, []
+        for var in _SPREAD_VARIABLES:
+            unit = "" if var == "relative_permittivity" else "_m"
+            sd = getattr(self, f"{var}_sd{unit}")
+            band = getattr(self, f"{var}_band{unit}")
+            if band > 0:
+                uniform.append(f"{var}{unit}")
+            values[f"{var}{unit}"] = band if band > 0 else sd
+        return Spread(**values, uniform=tuple(uniform))
+
+
+class MemberSpec(Record):
+    name: str
+    impedance_ohm: Positive
+    impedance_tolerance_ohm: Positive
+    frequency_hz: Annotated[float, Field(gt=0, le=1e12)]
+    power_w: Annotated[float, Field(ge=0)] | None = None
+    peak_voltage_v: Annotated[float, Field(ge=0)] | None = None
+    ambient_c: Temperature = 20.0
+    max_outer_diameter_m: Positive | None = None
+    field_safety_factor: Annotated[float, Field(ge=1.0)] = 1.0
+    single_mode_margin: Annotated[float, Field(ge=0.0)] = 1.0
+    min_shield_skin_depths: Annotated[float, Field(ge=0.0)] = 2.0
+    min_impedance_yield: Annotated[float, Field(gt=0.0, le=1.0)] | None = None
+
+    @field_validator("name")
+    @classmethod
+    def _name(cls, v):
+        if not _NAME.match(v):
+            raise ValueError("use letters, digits, '.', '_' and '-' only")
+        return v
+
+
+class SweepFile(Record):
+    name: str
+    seed: Annotated[int, Field(ge=0, lt=2**63)] = 0
+    description: str | None = None
+    catalogs: Annotated[list[str], Field(min_length=1)]
+    search: SearchSpec
+    tolerance: ToleranceSpec | None = None
+    member: Annotated[list[MemberSpec], Field(min_length=1)]
+
+    @field_validator("name")
+    @classmethod
+    def _name(cls, v):
+        if not _NAME.match(v):
+            raise ValueError("use letters, digits, '.', '_' and '-' only (it names a folder)")
+        return v
+
+
+@dataclass(frozen=True)
+class Sweep:
+    """A validated sweep: the file's content, its catalogs and the materials per catalog."""
+
+    spec: SweepFile
+    path: Path
+    text: str
+    catalogs: tuple[Catalog, ...]
+    materials: dict[str, dict[str, tuple[str, ...]]]
+    """catalog name -> design table (conductor, shield, dielectric, jacket) -> material ids."""
+
+    @property
+    def has_jacket(self) -> bool:
+        return self.spec.search.jacket_thickness_m[1] > 0.0
+
+
+def parse_sweep(raw: dict, where: str, base_dir: Path, text: str = "",
+                catalog_texts: dict[str, str] | None = None) -> Sweep:
+    """Validate a parsed sweep table; catalogs are resolved relative to ``base_dir``.
+
+    With ``catalog_texts`` (catalog entry of the sweep file -> TOML text) no file is read:
+    that is how a task travels to a worker on another machine.
+    """
+    try:
+        spec = SweepFile.model_validate(raw)
+    except ValidationError as exc:
+        line = validation_problems(exc, where, "sweep")[0]
+        raise InputError(line.replace("[sweep] ", "")) from None
+    if spec.tolerance is not None:
+        t = spec.tolerance
+        for var in _SPREAD_VARIABLES:
+            unit = "" if var == "relative_permittivity" else "_m"
+            if getattr(t, f"{var}_sd{unit}") > 0 and getattr(t, f"{var}_band{unit}") > 0:
+                raise InputError(f"{where}: tolerance.{var}_band{unit}: give either "
+                                 f"{var}_sd{unit} or {var}_band{unit}, not both")
+    for m in spec.member:
+        if m.min_impedance_yield is not None and spec.tolerance is None:
+            raise InputError(f"{where}: member {m.name!r} min_impedance_yield = "
+                             f"{m.min_impedance_yield!r}: needs a [tolerance] table")
+    if "impedance_yield" in spec.search.objectives and spec.tolerance is None:
+        raise InputError(f"{where}: search.objectives: 'impedance_yield' needs a [tolerance] "
+                         "table")
+    names = [m.name for m in spec.member]
+    dup = sorted({n for n in names if names.count(n) > 1})
+    if dup:
+        raise InputError(f"{where}: member.name = {dup[0]!r}: names must be unique")
+    loaded = []
+    for entry in spec.catalogs:
+        try:
+            loaded.append(load_catalog(base_dir / entry) if catalog_texts is None
+                          else catalog_from_text(catalog_texts[entry], base_dir / entry))
+        except InputError as exc:
+            raise InputError(f"{where}: catalogs = {entry!r}: {exc}") from None
+    catalogs = tuple(loaded)
+    cat_names = [c.name for c in catalogs]
+    if len(set(cat_names)) != len(cat_names):
+        raise InputError(f"{where}: catalogs = {spec.catalogs!r}: two catalogs share the "
+                         "name in their [catalog] table; names must be unique")
+    s = spec.search
+    materials: dict[str, dict[str, tuple[str, ...]]] = {c.name: {} for c in catalogs}
+    for key, (table, kind) in MATERIAL_KEYS.items():
+        wanted = getattr(s, key)
+        if table == "jacket" and s.jacket_thickness_m[1] == 0.0:
+            for c in catalogs:
+                materials[c.name][table] = ()
+            continue
+        if wanted is not None:
+            for mid in wanted:
+                if not any(mid in c.materials[kind] for c in catalogs):
+                    raise InputError(f"{where}: search.{key} = {wanted!r}: id {mid!r} is in no "
+                                     f"catalog ({', '.join(spec.catalogs)})")
+        for c in catalogs:
+            ids = tuple(m for m in (wanted or sorted(c.materials[kind])) if m in c.materials[kind])
+            if not ids:
+                raise InputError(f"{where}: search.{key} = {wanted!r}: catalog {c.name!r} "
+                                 f"({c.path}) has none of these {kind} ids")
+            materials[c.name][table] = ids
+    return Sweep(spec=spec, path=Path(where), text=text, catalogs=catalogs, materials=materials)
+
+
+def load_sweep(path) -> Sweep:
+    """Read and validate a sweep file."""
+    path = Path(path)
+    raw = read_toml(path)
+    return parse_sweep(raw, str(path), path.parent, path.read_bytes().decode("utf-8"))
+
+
+def sweep_payload(sweep: Sweep) -> dict:
+    """Everything a worker needs to rebuild ``sweep`` without the files: plain strings."""
+    return {"where": str(sweep.path), "sweep_text": sweep.text,
+            "catalog_texts": {entry: c.path.read_bytes().decode("utf-8")
+                              for entry, c in zip(sweep.spec.catalogs, sweep.catalogs)}}
+
+
+def sweep_from_payload(payload: dict) -> Sweep:
+    """Rebuild a sweep from :func:`sweep_payload` (catalog paths become labels only)."""
+    raw = tomllib.loads(payload["sweep_text"])
+    where = payload["where"]
+    return parse_sweep(raw, where, Path(where).parent, payload["sweep_text"],
+                       payload["catalog_texts"])
+
+
+def demo_sweep_path() -> Path:
+    """The bundled demo sweep file (package data)."""
+    return Path(str(resources.files("cablefam.optimizer.demo").joinpath("sweep.toml")))
+
+
+def demo_design_path() -> Path:
+    """The bundled demo design file (package data)."""
+    return Path(str(resources.files("cablefam.optimizer.demo").joinpath("design.toml")))

@@ -1,0 +1,86 @@
+"""Constraints of a family member, as margins: positive inside the limit, negative outside.
+
+Each margin is normalised by its limit, as pymoo expects of ``G = -margin`` (feasible when
+``G <= 0``): ``(limit - value) / limit``; temperatures are normalised by the allowed rise above
+ambient. The same margins are written to ``front.parquet`` as ``margin_<name>`` columns.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+#: Smallest b/a the search accepts as a valid coax (Z0 of about 0.6 ohm in air below it).
+MIN_RADIUS_RATIO = 1.01
+#: Margin given to a design with no thermal steady state (runaway) or a non-finite quantity:
+#: far outside every limit, but finite so that pymoo can still rank infeasible designs.
+NON_FINITE_MARGIN = -1.0e3
+
+CONSTRAINTS = ("geometry", "impedance", "peak_field", "conductor_temperature",
+               "jacket_temperature", "single_mode", "outer_diameter", "shield_skin_depths",
+               "impedance_yield")
+
+
+def geometry_margin(a, b):
+    """(b - 1.01 a) / b: negative when the dielectric radius does not exceed the inner one."""
+    return (b - MIN_RADIUS_RATIO * a) / b
+
+
+def constraint_margins(values, designs, member, dielectric_max_c, jacket_max_c):
+    """All margins of a member for evaluated designs; dict name -> array (shape of designs).
+
+    Parameters
+    ----------
+    values : dict
+        Output of :func:`cablefam.optimizer.model.evaluate.evaluate`.
+    designs : cablefam.optimizer.model.evaluate.Designs
+        The designs evaluated.
+    member : cablefam.optimizer.inputs.sweep_spec.MemberSpec
+        Limits and operating point.
+    dielectric_max_c, jacket_max_c : array_like or None
+        Temperature limits of the chosen dielectric and jacket [degC].
+    """
+    a, b = designs.inner_radius, designs.dielectric_radius
+    shape = np.shape(a)
+    off = np.full(shape, 1.0)  # an unused constraint is satisfied with unit margin
+    m = {"geometry": geometry_margin(a, b)}
+    m["impedance"] = (member.impedance_tolerance_ohm
+                      - np.abs(values["z0_ohm"] - member.impedance_ohm)
+                      ) / member.impedance_tolerance_ohm
+    if member.peak_voltage_v is not None and "max_peak_voltage_v" in values:
+        m["peak_field"] = (values["max_peak_voltage_v"] - member.peak_voltage_v) / np.maximum(
+            values["max_peak_voltage_v"], 1e-30)
+    else:
+        m["peak_field"] = off
+    if member.power_w is not None and "conductor_temperature_c" in values:
+        budget = np.maximum(np.asarray(dielectric_max_c) - member.ambient_c, 1.0)
+        m["conductor_temperature"] = (dielectric_max_c - values["conductor_temperature_c"]) / budget
+        if jacket_max_c is not None:
+            budget_j = np.maximum(np.asarray(jacket_max_c) - member.ambient_c, 1.0)
+            m["jacket_temperature"] = (jacket_max_c - values["shield_temperature_c"]) / budget_j
+        else:
+            m["jacket_temperature"] = off
+    else:
+        m["conductor_temperature"] = off
+        m["jacket_temperature"] = off
+    if member.single_mode_margin > 0:
+        need = member.single_mode_margin * member.frequency_hz
+        m["single_mode"] = (values["te11_cutoff_hz"] - need) / need
+    else:
+        m["single_mode"] = off
+    if member.max_outer_diameter_m is not None:
+        m["outer_diameter"] = (member.max_outer_diameter_m - values["outer_diameter_m"]
+                               ) / member.max_outer_diameter_m
+    else:
+        m["outer_diameter"] = off
+    if member.min_shield_skin_depths > 0:
+        need = member.min_shield_skin_depths * values["skin_depth_shield_m"]
+        m["shield_skin_depths"] = (designs.shield_thickness - need) / need
+    else:
+        m["shield_skin_depths"] = off
+    if member.min_impedance_yield is not None and "impedance_yield" in values:
+        m["impedance_yield"] = (values["impedance_yield"] - member.min_impedance_yield
+                                ) / member.min_impedance_yield
+    else:
+        m["impedance_yield"] = off
+    return {k: np.where(np.isfinite(v), v, NON_FINITE_MARGIN).astype(float) * np.ones(shape)
+            for k, v in ((k, m[k]) for k in CONSTRAINTS)}

@@ -1,0 +1,246 @@
+"""Evaluate whole populations of designs: physics in, named quantities (unit in the name) out.
+
+This is the one place where physics results get their edge names: the keys of
+``cablefam inspect --json``, the columns of ``front.parquet`` and the quantities the search
+constrains and minimises are the same strings.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from cablefam.physics import fields, line, mass, modes, stranding, thermal
+from cablefam.physics.eccentricity import geometry_factor, peak_field_factor
+from cablefam.physics.skin import skin_depth
+from cablefam.physics.units import neper_per_m_to_db_per_100m, per_m_to_per_km
+
+
+@dataclass(frozen=True)
+class Designs:
+    """Arrays of one common shape describing designs (geometry [m], material properties SI).
+
+    Material dictionaries use the catalog key names (``resistivity_ohm_m``...). A key that is
+    absent means the property is unknown; quantities that need it are then not computed.
+    """
+
+    inner_radius: np.ndarray
+    dielectric_radius: np.ndarray
+    shield_thickness: np.ndarray
+    jacket_thickness: np.ndarray
+    inner: dict[str, np.ndarray]
+    shield: dict[str, np.ndarray]
+    dielectric: dict[str, np.ndarray]
+    jacket: dict[str, np.ndarray] | None
+    eccentricity: np.ndarray | float = 0.0
+    """Offset of the centre conductor from the axis [m] (0: concentric)."""
+    inner_strands: np.ndarray | int = 1
+    """Strand count of the centre conductor (1: solid); ``inner_radius`` is then overall."""
+
+    @property
+    def shield_radius(self):
+        """c = b + shield thickness [m]."""
+        return self.dielectric_radius + self.shield_thickness
+
+    @property
+    def outer_radius(self):
+        """d = c + jacket thickness [m]."""
+        return self.shield_radius + self.jacket_thickness
+
+
+@dataclass(frozen=True)
+class OperatingPoint:
+    """Operating conditions, scalars or arrays broadcasting against :class:`Designs`."""
+
+    frequency_hz: float | np.ndarray
+    peak_voltage_v: float | np.ndarray | None = None
+    current_a: float | np.ndarray | None = None
+    field_safety_factor: float | np.ndarray = 1.0
+    power_w: float | np.ndarray | None = None
+    ambient_c: float | np.ndarray = 20.0
+
+
+def _has(table, *keys):
+    return table is not None and all(k in table for k in keys)
+
+
+def electromagnetic(d: Designs, op: OperatingPoint, method="auto",
+                    reference: Designs | None = None) -> dict[str, np.ndarray]:
+    """Line parameters, impedance, attenuation, velocity, skin depths and the DC resistances.
+
+    The line is evaluated at the resistivities of ``d``; skin depths and DC resistances at
+    those of ``reference`` (default ``d``), so that :func:`evaluate` can give the line at the
+    operating temperatures beside the 20 degC reference values.
+    """
+    a, b, c = d.inner_radius, d.dielectric_radius, d.shield_radius
+    f = op.frequency_hz
+    lp = line.line_parameters(a, b, c, f, d.inner["resistivity_ohm_m"],
+                              d.shield["resistivity_ohm_m"],
+                              d.dielectric["relative_permittivity"], d.dielectric["loss_tangent"],
+                              d.inner.get("relative_permeability", 1.0),
+                              d.shield.get("relative_permeability", 1.0), method=method,
+                              offset=d.eccentricity, inner_strands=d.inner_strands)
+    return _line_quantities(d, op, lp, d if reference is None else reference)
+
+
+def electrical_inner_radius(d: Designs):
+    """The radius the fields see: the overall one, or the effective one of a strand lay-up."""
+    if np.any(np.asarray(d.inner_strands) != 1):
+        return stranding.stranded_effective_radius(d.inner_radius, d.inner_strands)
+    return d.inner_radius
+
+
+def _reference_quantities(d: Designs, op: OperatingPoint):
+    """Skin depths and DC resistances at the catalog (20 degC) resistivities."""
+    a, b, c = d.inner_radius, d.dielectric_radius, d.shield_radius
+    f = op.frequency_hz
+    out = {
+        "skin_depth_inner_m": skin_depth(d.inner["resistivity_ohm_m"], f,
+                                         d.inner.get("relative_permeability", 1.0)),
+        "skin_depth_shield_m": skin_depth(d.shield["resistivity_ohm_m"], f,
+                                          d.shield.get("relative_permeability", 1.0)),
+        "dc_resistance_inner_ohm_per_m": stranding.stranded_dc_resistance(
+            a, d.inner_strands, d.inner["resistivity_ohm_m"]),
+        "dc_resistance_shield_ohm_per_m": d.shield["resistivity_ohm_m"] / (np.pi * (c * c - b * b)),
+    }
+    return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+
+
+def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
+                     reference: Designs):
+    a, b = d.inner_radius, d.dielectric_radius
+    f = op.frequency_hz
+    gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
+    z0 = gamma / (lp.g + 2j * np.pi * f * lp.c)
+    z0_lossless = line.characteristic_impedance_lossless(
+        electrical_inner_radius(d), b, d.dielectric["relative_permittivity"], d.eccentricity)
+    alpha_c, alpha_d = line.attenuation_split(gamma.real, lp.r, lp.g, z0_lossless)
+    out = {
+        "z0_ohm": np.abs(z0),
+        "z0_real_ohm": z0.real,
+        "z0_imag_ohm": z0.imag,
+        "z0_lossless_ohm": z0_lossless,
+        "r_ohm_per_m": lp.r,
+        "l_h_per_m": lp.l,
+        "g_s_per_m": lp.g,
+        "c_f_per_m": lp.c,
+        "attenuation_db_per_100m": neper_per_m_to_db_per_100m(gamma.real),
+        "conductor_attenuation_db_per_100m": neper_per_m_to_db_per_100m(alpha_c),
+        "dielectric_attenuation_db_per_100m": neper_per_m_to_db_per_100m(alpha_d),
+        "velocity_factor": line.velocity_factor(gamma.imag, f),
+        "delay_s_per_m": line.delay_per_metre(gamma.imag, f),
+    }
+    out = {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+    out.update(_reference_quantities(reference, op))
+    return out
+
+
+def evaluate(d: Designs, op: OperatingPoint, method="auto",
+             include_max_power: bool = True) -> dict[str, np.ndarray]:
+    """Every quantity of a population of designs at one operating point.
+
+    Returns a dict of float arrays (shape of the designs), keyed by the names of
+    ``cablefam inspect --json``. Keys whose inputs are missing (no jacket table, no power, no
+    peak voltage, no thermal properties) are left out, never filled with NaN. When
+    ``power_w`` is given, the line quantities are those at the operating temperatures (skin
+    depths and DC resistances stay the 20 degC reference values).
+    ``include_max_power=False`` skips the power rating (a root search per design), which the
+    search only needs when it is an objective.
+    """
+    a, b = d.inner_radius, d.dielectric_radius
+    c, rd = d.shield_radius, d.outer_radius
+    diel = d.dielectric
+    no_jacket = bool(np.all(d.jacket_thickness == 0.0))
+    jacket = d.jacket if d.jacket is not None else ({} if no_jacket else None)
+    thermal_ok = (_has(d.inner, "temperature_coefficient_per_k")
+                  and _has(d.shield, "temperature_coefficient_per_k")
+                  and _has(diel, "thermal_resistivity_k_m_per_w")
+                  and (no_jacket or _has(jacket, "thermal_resistivity_k_m_per_w")))
+    common = None
+    if thermal_ok:
+        common = dict(
+            a=a, b=b, c=c, d=rd, frequency=op.frequency_hz, ambient_c=op.ambient_c,
+            inner_resistivity_20c=d.inner["resistivity_ohm_m"],
+            inner_temperature_coefficient=d.inner["temperature_coefficient_per_k"],
+            shield_resistivity_20c=d.shield["resistivity_ohm_m"],
+            shield_temperature_coefficient=d.shield["temperature_coefficient_per_k"],
+            relative_permittivity=diel["relative_permittivity"],
+            loss_tangent=diel["loss_tangent"],
+            dielectric_thermal_resistivity=diel["thermal_resistivity_k_m_per_w"],
+            jacket_thermal_resistivity=jacket.get("thermal_resistivity_k_m_per_w", 1.0),
+            inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
+            shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
+            offset=d.eccentricity, inner_strands=d.inner_strands,
+        )
+    state = None
+    if thermal_ok and op.power_w is not None:
+        state = thermal.coax_thermal_state(power=op.power_w, **common)
+        # the line at the operating temperatures of the two conductors
+        hot = Designs(
+            a, b, d.shield_thickness, d.jacket_thickness,
+            inner={**d.inner, "resistivity_ohm_m": thermal.resistivity_at_temperature(
+                d.inner["resistivity_ohm_m"], d.inner["temperature_coefficient_per_k"],
+                np.where(state.converged, state.conductor_temperature_c, op.ambient_c))},
+            shield={**d.shield, "resistivity_ohm_m": thermal.resistivity_at_temperature(
+                d.shield["resistivity_ohm_m"], d.shield["temperature_coefficient_per_k"],
+                np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
+            dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
+            inner_strands=d.inner_strands)
+        out = electromagnetic(hot, op, method, reference=d)
+    else:
+        out = electromagnetic(d, op, method)
+    a_el = electrical_inner_radius(d)
+    out["outer_diameter_m"] = mass.outer_diameter(rd) + 0.0 * a
+    out["te11_cutoff_hz"] = modes.te11_cutoff_frequency(a_el, b, diel["relative_permittivity"])
+    out["te11_cutoff_approx_hz"] = modes.te11_cutoff_frequency_approx(
+        a_el, b, diel["relative_permittivity"])
+    # an offset centre conductor: arccosh geometry factor and the field crowding on its near side
+    # (stranded: the smooth conductor of the effective radius; crowns of strands not modelled)
+    lam = geometry_factor(a_el, b, d.eccentricity)
+    crowding = peak_field_factor(a_el, b, d.eccentricity)
+    if op.peak_voltage_v is not None:
+        out["peak_e_field_v_per_m"] = fields.peak_electric_field(a_el, b, op.peak_voltage_v) * (
+            np.log(b / a_el) / lam * crowding)
+    if "dielectric_strength_v_per_m" in diel:
+        out["max_peak_voltage_v"] = fields.max_peak_voltage(
+            a_el, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor) * (
+            lam / np.log(b / a_el) / crowding)
+    out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(
+        out["dc_resistance_inner_ohm_per_m"] + out["dc_resistance_shield_ohm_per_m"])
+
+    densities = ("density_kg_per_m3",)
+    if _has(d.inner, *densities) and _has(d.shield, *densities) and _has(diel, *densities) and (
+            no_jacket or _has(jacket, *densities)):
+        # a stranded conductor holds less metal than its overall circle (the voids are
+        # taken as dielectric-free; their small share of dielectric mass is not counted)
+        metal_share = 1.0
+        if np.any(np.asarray(d.inner_strands) != 1):
+            lay = stranding.strand_layup(d.inner_strands)
+            metal_share = lay.area_ratio * stranding.lay_take_up_factor(d.inner_strands)
+        masses = mass.layer_masses(a, b, c, rd, d.inner["density_kg_per_m3"] * metal_share,
+                                   diel["density_kg_per_m3"], d.shield["density_kg_per_m3"],
+                                   jacket.get("density_kg_per_m3", 0.0))
+        out["mass_kg_per_km"] = per_m_to_per_km(masses.total)
+        prices = ("price_per_kg",)
+        if _has(d.inner, *prices) and _has(d.shield, *prices) and _has(diel, *prices) and (
+                no_jacket or _has(jacket, *prices)):
+            out["cost_per_km"] = per_m_to_per_km(mass.material_cost(
+                masses, d.inner["price_per_kg"], diel["price_per_kg"], d.shield["price_per_kg"],
+                jacket.get("price_per_kg", 0.0)))
+
+    if state is not None:
+        out.update({
+            "conductor_temperature_c": state.conductor_temperature_c,
+            "shield_temperature_c": state.shield_temperature_c,
+            "surface_temperature_c": state.surface_temperature_c,
+            "temperature_rise_k": state.temperature_rise_k,
+            "heat_w_per_m": state.heat_w_per_m,
+            "thermal_converged": state.converged.astype(float),
+        })
+    if thermal_ok and include_max_power and "max_temperature_c" in diel:
+        jacket_max = jacket.get("max_temperature_c") if not no_jacket else None
+        out["max_power_w"] = thermal.max_power(
+            dielectric_max_temperature_c=diel["max_temperature_c"],
+            jacket_max_temperature_c=jacket_max, **common)
+    return out

@@ -1,0 +1,365 @@
+"""Design sheets: one Markdown and one HTML page per picked design, with its plots beside it.
+
+A sheet re-evaluates the design from the run folder (the front row exported as a design file,
+materials from the run's catalog copy) and holds every computed quantity, the materials and
+their sources, the constraint margins, a cross-section to scale, the B(r), |J(r)| and E(r)
+profiles at the operating point, attenuation and power handling versus frequency, the design's
+place on its member's front, and the cautions. The HTML page is self-contained apart from the
+PNG files next to it (relative links): no external script or style sheet.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import html
+import math
+import tomllib
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+
+from cablefam.optimizer.atomic import write_text_atomic
+from cablefam.optimizer.cautions import CAUTION_LINES
+from cablefam.optimizer.review.design_export import front_row_design_toml
+from cablefam.optimizer.inputs.design_file import Design, design_arrays, parse_design
+from cablefam.optimizer.errors import InputError
+from cablefam.optimizer.model.evaluate import Designs, evaluate
+from cablefam.optimizer.review.inspection import REPORT_LAYOUT, Inspection, engineering, inspect_loaded, \
+    profile_table
+from cablefam.optimizer.model.objectives import OBJECTIVES
+from cablefam.optimizer.review import plots
+
+#: Points of the frequency sweep on a sheet.
+FREQUENCY_POINTS = 40
+#: Frequency sweep from operating / FREQUENCY_SPAN_BELOW to operating * FREQUENCY_SPAN_ABOVE,
+#: but not beyond the TE11 cutoff (the TEM model does not hold above it).
+FREQUENCY_SPAN_BELOW = 100.0
+FREQUENCY_SPAN_ABOVE = 10.0
+#: Relative difference above which a re-evaluated quantity is flagged against the run's value.
+REEVALUATION_RTOL = 1e-6
+
+
+# ------------------------------------------------------------------------- document blocks
+
+@dataclasses.dataclass(frozen=True)
+class Heading:
+    level: int
+    text: str
+
+
+@dataclasses.dataclass(frozen=True)
+class Paragraph:
+    text: str
+
+
+@dataclasses.dataclass(frozen=True)
+class Table:
+    headers: tuple[str, ...]
+    rows: tuple[tuple[str, ...], ...]
+
+
+@dataclasses.dataclass(frozen=True)
+class Image:
+    path: str
+    """Relative to the page."""
+    alt: str
+
+
+@dataclasses.dataclass(frozen=True)
+class Code:
+    text: str
+
+
+def _md_cell(text: str) -> str:
+    return str(text).replace("|", "\\|").replace("\n", " ")
+
+
+def render_markdown(blocks) -> str:
+    out = []
+    for b in blocks:
+        if isinstance(b, Heading):
+            out.append("#" * b.level + " " + b.text)
+        elif isinstance(b, Paragraph):
+            out.append(b.text)
+        elif isinstance(b, Table):
+            out.append("| " + " | ".join(_md_cell(h) for h in b.headers) + " |")
+            out.append("|" + "|".join(" --- " for _ in b.headers) + "|")
+            out += ["| " + " | ".join(_md_cell(c) for c in row) + " |" for row in b.rows]
+        elif isinstance(b, Image):
+            out.append(f"![{b.alt}]({b.path})")
+        elif isinstance(b, Code):
+            out.append("```\n" + b.text.rstrip("\n") + "\n```")
+        out.append("")
+    return "\n".join(out)
+
+
+_STYLE = ("body{font-family:sans-serif;max-width:60em;margin:2em auto;padding:0 1em;"
+          "color:#222}table{border-collapse:collapse;margin:0.5em 0}"
+          "td,th{border:1px solid #bbb;padding:0.2em 0.6em;text-align:left;vertical-align:top}"
+          "th{background:#eee}img{max-width:100%}pre{background:#f4f4f4;padding:0.6em;"
+          "overflow-x:auto}.caution{border:2px solid #D55E00;padding:0.6em}")
+
+
+def render_html(blocks, title: str) -> str:
+    e = html.escape
+    out = ["<!DOCTYPE html>", "<html lang=\"en\">", "<head>", "<meta charset=\"utf-8\">",
+           f"<title>{e(title)}</title>", f"<style>{_STYLE}</style>", "</head>", "<body>"]
+    for b in blocks:
+        if isinstance(b, Heading):
+            out.append(f"<h{b.level}>{e(b.text)}</h{b.level}>")
+        elif isinstance(b, Paragraph):
+            cls = " class=\"caution\"" if b.text.startswith("CAUTION") else ""
+            out.append(f"<p{cls}>{e(b.text)}</p>")
+        elif isinstance(b, Table):
+            out.append("<table>")
+            out.append("<tr>" + "".join(f"<th>{e(h)}</th>" for h in b.headers) + "</tr>")
+            out += ["<tr>" + "".join(f"<td>{e(str(c))}</td>" for c in row) + "</tr>"
+                    for row in b.rows]
+            out.append("</table>")
+        elif isinstance(b, Image):
+            out.append(f"<p><img src=\"{e(b.path)}\" alt=\"{e(b.alt)}\"></p>")
+        elif isinstance(b, Code):
+            out.append(f"<pre>{e(b.text)}</pre>")
+    out += ["</body>", "</html>", ""]
+    return "\n".join(out)
+
+
+# --------------------------------------------------------------------------------- physics
+
+def _repeat(designs: Designs, n: int) -> Designs:
+    """Every array field of a one-design :class:`Designs` repeated ``n`` times."""
+    def rep(v):
+        return np.repeat(np.asarray(v, dtype=float).reshape(-1), n)
+
+    changes = {}
+    for fld in dataclasses.fields(designs):
+        value = getattr(designs, fld.name)
+        if isinstance(value, dict):
+            changes[fld.name] = {k: rep(v) for k, v in value.items()}
+        elif value is not None:
+            changes[fld.name] = rep(value)
+    return dataclasses.replace(designs, **changes)
+
+
+def frequency_response(design: Design, te11_cutoff_hz: float | None,
+                       n: int = FREQUENCY_POINTS) -> pd.DataFrame:
+    """Attenuation (20 degC conductors, and at the operating power) and max CW power versus
+    frequency, from operating/100 to min(10 x operating, TE11 cutoff); one vectorized call per
+    curve."""
+    designs, op = design_arrays(design)
+    f0 = float(op.frequency_hz)
+    top = FREQUENCY_SPAN_ABOVE * f0
+    if te11_cutoff_hz is not None and math.isfinite(te11_cutoff_hz):
+        top = max(min(top, te11_cutoff_hz), 1.01 * f0)
+    f = np.geomspace(f0 / FREQUENCY_SPAN_BELOW, top, n)
+    many = _repeat(designs, n)
+    cold = evaluate(many, dataclasses.replace(op, frequency_hz=f, power_w=None),
+                    include_max_power=True)
+    out = {"frequency_hz": f, "attenuation_20c_db_per_100m": cold["attenuation_db_per_100m"]}
+    if "max_power_w" in cold:
+        out["max_power_w"] = cold["max_power_w"]
+    if op.power_w:
+        hot = evaluate(many, dataclasses.replace(op, frequency_hz=f), include_max_power=False)
+        att = np.where(hot.get("thermal_converged", np.ones(n)) > 0.0,
+                       hot["attenuation_db_per_100m"], np.nan)
+        out["attenuation_hot_db_per_100m"] = att
+    return pd.DataFrame(out)
+
+
+# ---------------------------------------------------------------------------------- sheets
+
+def _fmt(v, unit="") -> str:
+    if v is None or (isinstance(v, float) and math.isnan(v)):
+        return "-"
+    if isinstance(v, float):
+        return engineering(v, unit) if unit else f"{v:.4g}"
+    return str(v)
+
+
+def _quantity_rows(values: dict[str, float]) -> list[Table | Heading]:
+    blocks: list = []
+    seen = set()
+    for title, rows in REPORT_LAYOUT:
+        present = [(k, label, u) for k, label, u in rows if k in values]
+        if not present:
+            continue
+        blocks.append(Heading(3, title))
+        blocks.append(Table(("quantity", "value", "key"),
+                            tuple((label.strip(), engineering(values[k], u), k)
+                                  for k, label, u in present)))
+        seen.update(k for k, _, _ in present)
+    rest = [k for k in values if k not in seen]
+    if rest:
+        blocks.append(Heading(3, "Other"))
+        blocks.append(Table(("quantity", "value", "key"), tuple(
+            (k, ("yes" if values[k] else "no") if k == "thermal_converged"
+             else f"{values[k]:.6g}", k) for k in rest)))
+    return blocks
+
+
+def _material_rows(design: Design, ids: dict[str, str]) -> Table:
+    rows = []
+    for table in ("conductor", "shield", "dielectric", "jacket"):
+        record = getattr(design, table)
+        if record is None:
+            continue
+        data = record.model_dump(exclude_none=True)
+        props = ", ".join(f"{k} = {v:.6g}" for k, v in data.items()
+                          if isinstance(v, (int, float)))
+        rows.append((table, ids.get(table) or "-", data.get("name", "-"), props,
+                     data.get("source", "not given")))
+    return Table(("layer", "id", "material", "properties (SI, units in names)", "source"),
+                 tuple(rows))
+
+
+def _reevaluation_notes(values: dict[str, float], row: pd.Series) -> list[str]:
+    notes = []
+    for k, v in values.items():
+        if k in row.index and isinstance(row[k], (float, np.floating)):
+            stored = float(row[k])
+            if math.isfinite(stored) and math.isfinite(v) and not math.isclose(
+                    v, stored, rel_tol=REEVALUATION_RTOL, abs_tol=1e-12):
+                notes.append(f"{k}: run {stored:.6g}, now {v:.6g}")
+    return notes
+
+
+def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance: dict,
+                 out_dir, *, method: str, score_meaning: str) -> list[Path]:
+    """Write the sheet of one picked front row (Markdown, HTML, PNGs); return the paths."""
+    run_dir, out_dir = Path(run_dir), Path(out_dir)
+    member, catalog, index = str(row["member"]), str(row["catalog"]), int(row["index"])
+    objectives = list(provenance["objectives"])
+    toml_text = front_row_design_toml(run_dir, member, index)
+    where = f"{run_dir} member {member} index {index}"
+    design = parse_design(tomllib.loads(toml_text), where, run_dir)
+    result: Inspection = inspect_loaded(design)
+    values = result.values
+    g = design.geometry
+    a, b = g.inner_radius_m, g.dielectric_radius_m
+    c = b + g.shield_thickness_m
+    d = c + g.jacket_thickness_m
+    offset = float(getattr(g, "eccentricity_m", 0.0) or 0.0)
+    stem = plots.safe_name(f"{member}-{catalog}-{index}")
+    ids = {t: row.get(t) for t in ("conductor", "shield", "dielectric", "jacket")}
+    names = {t: f"{ids[t]}" for t in ids if ids[t]}
+
+    profile = profile_table(result)
+    o = design.operating
+    z0 = values["z0_ohm"]
+    if o.power_w:
+        note = (f"{o.power_w:g} W CW in a matched line: I = {math.sqrt(2 * o.power_w / z0):.4g} A"
+                " peak")
+    else:
+        note = "I = 1 A"
+    if o.peak_voltage_v is not None:
+        note += f", V = {o.peak_voltage_v:g} V peak"
+    if offset > 0.0:
+        note += "; concentric profile, the offset conductor is not drawn here"
+    freq = frequency_response(design, values.get("te11_cutoff_hz"))
+    paths: list[Path] = []
+    images = {}
+    figures = {
+        "section": (plots.cross_section_figure(a, b, c, d, names, offset),
+                    "cross-section to scale"),
+        "profiles": (plots.profile_figure(profile, a, b, c, d, note),
+                     "B(r), |J(r)| and E(r) at the operating point"),
+        "frequency": (plots.frequency_figure(freq, o.frequency_hz, values.get("te11_cutoff_hz"),
+                                             o.power_w),
+                      "attenuation and power handling versus frequency"),
+        "front": (plots.front_position_figure(
+            member_front, row, objectives, f"{member}: this design on the member's front"),
+            "position on the member's front"),
+    }
+    for key, (fig, alt) in figures.items():
+        written = plots.save_figure(fig, out_dir / f"{stem}-{key}", formats=("png",))
+        paths += written
+        images[key] = Image(written[0].name, alt)
+
+    spec = next((m for m in provenance.get("members", ()) if m.get("name") == member), {})
+    title = f"Design sheet: {member}, catalog {catalog}, front row {index}"
+    blocks: list = [
+        Heading(1, title),
+        Paragraph(f"Run {run_dir.name} ({run_dir}); picked by {method}, rank {int(row['rank'])}, "
+                  f"score {float(row['score']):.4g} ({score_meaning}). Engineering estimate: "
+                  "see the cautions at the end."),
+        Paragraph("Export this design as a design file:"),
+        Code(f"cablefam design {run_dir} --member {member} --index {index} > {stem}.toml\n"
+             f"cablefam inspect {stem}.toml"),
+        Heading(2, "Member specification (operating point and limits)"),
+        Table(("key", "value"), tuple((k, _fmt(v)) for k, v in spec.items())),
+        Heading(2, "Geometry"),
+        Table(("dimension", "value"), (
+            ("centre-conductor radius a", engineering(a, "m")),
+            ("dielectric radius b", engineering(b, "m")),
+            ("shield outer radius c", engineering(c, "m")),
+            ("outer radius d", engineering(d, "m")),
+            ("shield thickness", engineering(g.shield_thickness_m, "m")),
+            ("jacket thickness", engineering(g.jacket_thickness_m, "m")),
+            ("centre-conductor offset (eccentricity)", engineering(offset, "m")),
+            ("b/a", f"{b / a:.4g}"))),
+        images["section"],
+        Heading(2, "Materials and their sources"),
+        _material_rows(design, ids),
+        Heading(2, "Objectives"),
+        Table(("objective", "value", "pseudo-weight (Deb 2001)"), tuple(
+            (OBJECTIVES[ob].label, f"{float(row[OBJECTIVES[ob].column]):.6g}",
+             f"{float(row.get(f'pseudo_weight_{ob}', float('nan'))):.3f}")
+            for ob in objectives)),
+        Heading(2, "Every computed quantity (re-evaluated at the operating point)"),
+    ]
+    blocks += _quantity_rows(values)
+    notes = _reevaluation_notes(values, row)
+    if notes:
+        blocks.append(Paragraph("Re-evaluation differs from the run's stored values (code or "
+                                "catalog changed since the run?): " + "; ".join(notes)))
+    margins = [(k[len("margin_"):], f"{float(row[k]):.4g}") for k in row.index
+               if k.startswith("margin_")]
+    if "impedance_yield" in row.index and pd.notna(row["impedance_yield"]):
+        blocks += [
+            Heading(2, "Manufacturing yield (the run's [tolerance] spreads)"),
+            Table(("quantity", "value"), (
+                ("impedance yield (share within the tolerance band)",
+                 f"{float(row['impedance_yield']):.4f}"),
+                ("Z0 3-sigma band [ohm]", f"{float(row['z0_3sigma_low_ohm']):.4g} .. "
+                                          f"{float(row['z0_3sigma_high_ohm']):.4g}"))),
+        ]
+    blocks += [
+        Heading(2, "Constraint margins (fraction of the limit; >= 0 is within it)"),
+        Table(("constraint", "margin"), tuple(margins)),
+        Heading(2, "Field profiles at the operating point"),
+        Paragraph(f"Amplitudes across centre conductor, dielectric, shield wall and outside "
+                  f"({note})."),
+        images["profiles"],
+        Heading(2, "Attenuation and power handling versus frequency"),
+        images["frequency"],
+        Heading(2, "Position on the member's front"),
+        images["front"],
+        Heading(2, "Cautions"),
+        Paragraph(" ".join(CAUTION_LINES)),
+    ]
+    md = out_dir / f"{stem}.md"
+    page = out_dir / f"{stem}.html"
+    write_text_atomic(md, render_markdown(blocks))
+    write_text_atomic(page, render_html(blocks, title))
+    return [md, page] + paths
+
+
+def write_sheets(result, out_dir) -> list[Path]:
+    """Design sheets of every pick of a :class:`cablefam.optimizer.review.pick.PickResult`."""
+    from cablefam.optimizer.review.pick import SCORE_MEANING
+    from cablefam.optimizer.run_folder.reader import read_front
+
+    if result.picks.empty:
+        return []
+    front, provenance = read_front(result.run_dir)
+    out_dir = Path(out_dir)
+    if out_dir.exists() and not out_dir.is_dir():
+        raise InputError(f"--sheet = {out_dir}: exists and is not a folder")
+    paths: list[Path] = []
+    for _, row in result.picks.iterrows():
+        member_front = front[front["member"] == row["member"]]
+        paths += design_sheet(result.run_dir, row, member_front, provenance, out_dir,
+                              method=result.method,
+                              score_meaning=SCORE_MEANING[result.method])
+    return paths
