@@ -23,10 +23,19 @@ MEMBER_COLUMNS = ("impedance_ohm", "impedance_tolerance_ohm", "frequency_hz", "p
                   "peak_voltage_v", "ambient_c", "field_safety_factor")
 
 
+def design_geometry(designs) -> dict[str, np.ndarray]:
+    """The geometry columns of designs (the dielectric radius as solved by the search)."""
+    n = np.shape(designs.inner_radius)
+    return {"inner_radius_m": designs.inner_radius,
+            "dielectric_radius_m": np.broadcast_to(designs.dielectric_radius, n),
+            "shield_thickness_m": np.broadcast_to(designs.shield_thickness, n),
+            "jacket_thickness_m": np.broadcast_to(designs.jacket_thickness, n)}
+
+
 def front_frame(problem: MemberProblem, x: np.ndarray) -> pd.DataFrame:
     """Rows of a task's front: ids, geometry, operating point, every quantity, margins."""
-    values, margins, idx = problem.evaluate_designs(x, include_max_power=True)
-    geometry, _ = problem.layout.decode(x)
+    values, margins, idx, designs = problem.evaluate_rows(x, include_max_power=True)
+    geometry = design_geometry(designs)
     n = len(x)
     cols: dict[str, object] = {"member": [problem.member.name] * n,
                                "catalog": [problem.catalog.name] * n}
@@ -56,7 +65,8 @@ def evaluated_frame(problem: MemberProblem, rows: np.ndarray) -> pd.DataFrame:
     """Every evaluated design of a task: decoded variables, objectives, margins, feasibility."""
     n_var, n_obj = problem.n_var, problem.n_obj
     x, f, g = rows[:, :n_var], rows[:, n_var:n_var + n_obj], rows[:, n_var + n_obj:]
-    geometry, idx = problem.layout.decode(x)
+    computed, actual, idx = problem.designs(x)
+    geometry = design_geometry(actual)
     cols: dict[str, object] = {"member": [problem.member.name] * len(x),
                                "catalog": [problem.catalog.name] * len(x)}
     for table in MATERIAL_TABLES:
@@ -73,7 +83,8 @@ def evaluated_frame(problem: MemberProblem, rows: np.ndarray) -> pd.DataFrame:
     return pd.DataFrame(cols)
 
 
-def write_outputs(sweep, settings, run_dir, results, started, wall, resumed=0, forced=False):
+def write_outputs(sweep, settings, run_dir, results, started, wall, resumed=0, forced=False,
+                  time_budget_s=None):
     """Assemble the front from the task results (in task order) and write the run files."""
     fronts, evaluated = [], []
     members = {m.name: m for m in sweep.spec.member}
@@ -101,6 +112,7 @@ def write_outputs(sweep, settings, run_dir, results, started, wall, resumed=0, f
         "wall_seconds": round(wall, 3),
         "tasks_taken_from_earlier_session": resumed,
         "resumed_with_force": forced,
+        "time_budget_s": time_budget_s,
         "command": " ".join(["cablefam"] + sys.argv[1:]),
         "tasks": [{"member": r.member, "catalog": r.catalog, "seed": r.seed,
                    "generations": r.generations, "evaluations": r.evaluations,

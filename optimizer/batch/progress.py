@@ -1,4 +1,4 @@
-"""Progress of a sweep on stderr: member, catalog, generation, feasible count, best values, ETA.
+"""Progress of a sweep on stderr: task, stage, evaluations per second, front size, hypervolume, ETA.
 
 stdout stays clean for machine-readable output.
 """
@@ -10,6 +10,7 @@ import time
 
 
 from cablefam.optimizer.model.objectives import OBJECTIVES
+from cablefam.optimizer.search.archive import front_hypervolume
 
 
 def _clock(seconds: float) -> str:
@@ -27,6 +28,7 @@ class StderrProgress:
         self.done = 0
         self.t_start = time.perf_counter()
         self._last = 0.0
+        self._box = {}
 
     def _print(self, text):
         print(text, file=self.stream, flush=True)
@@ -45,25 +47,33 @@ class StderrProgress:
         self._print(f"tasks: {self.done}/{self.n_tasks} done, {running} running, {queued} "
                     f"queued, elapsed {_clock(elapsed)}")
 
-    def generation(self, member, catalog, gen, generations, problem, task_seconds):
+    def task_progress(self, member, catalog, problem, budget, gen, task_seconds):
+        """A task's state: stage, evaluations per second, front size and hypervolume."""
         now = time.perf_counter()
-        if now - self._last < self.interval_s and gen < generations:
+        done = problem.n_evaluations
+        final = gen is not None and gen >= budget.generations
+        if now - self._last < self.interval_s and not final:
             return
         self._last = now
-        best = []
+        rate = done / task_seconds if task_seconds > 0 else 0.0
         arch = problem.archive
+        best = []
         for j, name in enumerate(problem.objectives):
             if len(arch.f):
                 o = OBJECTIVES[name]
                 v = arch.f[:, j].min()
                 best.append(f"{name} {(-v if o.maximise else v):.4g}")
-        per_gen = task_seconds / gen
-        remaining_task = per_gen * (generations - gen)
-        remaining = remaining_task + per_gen * generations * (self.n_tasks - self.done - 1)
+        hv = front_hypervolume(arch.f, self._box.get((member, catalog)))
+        if gen is not None and (member, catalog) not in self._box and len(arch.f):
+            self._box[(member, catalog)] = (arch.f.min(axis=0), arch.f.max(axis=0))
+        stage = "dense" if gen is None else f"gen {gen}/{budget.generations}"
+        remaining = (budget.total - done) / rate if rate > 0 else 0.0
+        remaining += budget.total / rate * (self.n_tasks - self.done - 1) if rate > 0 else 0.0
         self._print(
-            f"[{self.done + 1}/{self.n_tasks}] {member} x {catalog}: gen {gen}/{generations}, "
-            f"feasible {problem.last_feasible}/{problem.pop_size_hint}, front {len(arch.f)}, "
-            f"best {'; '.join(best) or 'none feasible yet'}, ETA {_clock(remaining)}")
+            f"[{self.done + 1}/{self.n_tasks}] {member} x {catalog}: {stage}, "
+            f"{done}/{budget.total} evaluations ({rate:,.0f}/s), front {len(arch.f)}"
+            + (f", HV {hv:.4f}" if hv is not None else "")
+            + f", best {'; '.join(best) or 'none feasible yet'}, ETA {_clock(remaining)}")
 
     def task_done(self, result, front_rows):
         self.done += 1

@@ -7,6 +7,9 @@ import platform
 from importlib import metadata
 from typing import TYPE_CHECKING
 
+from cablefam.optimizer.model.objectives import resolutions
+from cablefam.optimizer.search.budget import task_budget
+
 if TYPE_CHECKING:  # annotations only
     from cablefam.optimizer.batch.sweep import SweepSettings
     from cablefam.optimizer.inputs.sweep_spec import Sweep
@@ -43,6 +46,10 @@ def front_provenance(sweep: Sweep, settings: SweepSettings, counts: dict) -> dic
         "generations": settings.generations,
         "population": settings.population,
         "objectives": list(sweep.spec.search.objectives),
+        "evaluations_per_task": task_budget(settings.population, settings.generations,
+                                            sweep.spec.search.evaluations_per_task).total,
+        "resolution": dict(zip(sweep.spec.search.objectives, resolutions(
+            sweep.spec.search.objectives, sweep.spec.search.resolution).tolist())),
         "members": [m.model_dump() for m in sweep.spec.member],
         "packages": package_versions(),
         "counts": counts,

@@ -12,7 +12,7 @@ from __future__ import annotations
 import json
 import shutil
 import time
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from datetime import datetime, timezone
 from pathlib import Path
 
@@ -24,6 +24,7 @@ from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.inputs.sweep_spec import Sweep
 from cablefam.optimizer.run_folder.files import (EVALUATED_FILE, FRONT_FILE, RUN_FILE,
                                                  STATE_FILE, read_json)
+from cablefam.optimizer.search.budget import MIN_DENSE_EVALUATIONS
 from cablefam.optimizer.search.task import TaskResult
 
 
@@ -104,19 +105,33 @@ def _settings(sweep: Sweep, seed, generations, population, record_evaluated) -> 
     if settings.generations < 1 or settings.population < 4:
         raise InputError(f"--generations = {settings.generations}, --population = "
                          f"{settings.population}: need generations >= 1 and population >= 4")
+    check_budget(sweep, settings)
     return settings
+
+
+def check_budget(sweep: Sweep, settings: SweepSettings) -> None:
+    """The evaluation budget must leave room for the dense stage before the genetic one."""
+    given = sweep.spec.search.evaluations_per_task
+    genetic = settings.population * settings.generations
+    if given is not None and given < genetic + MIN_DENSE_EVALUATIONS:
+        raise InputError(f"{sweep.path}: search.evaluations_per_task = {given}: must be at "
+                         f"least population x generations + {MIN_DENSE_EVALUATIONS} = "
+                         f"{genetic + MIN_DENSE_EVALUATIONS} (population {settings.population}, "
+                         f"generations {settings.generations})")
 
 
 def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, population=None,
               record_evaluated=False, overwrite=False, progress=None, resume=False,
               force=False, workers=1, scheduler=None, checkpoint_every=None,
-              checkpoint_seconds=30.0) -> Path:
+              checkpoint_seconds=30.0, time_budget_s=None) -> Path:
     """Run every member x catalog task of ``sweep`` and write the run folder; return its path.
 
     Finished tasks are stored at once under ``tasks/``; with ``resume`` they are not
     recomputed and unfinished ones continue from their last checkpoint. ``workers`` > 1 runs
     tasks in local processes; ``scheduler`` (``tcp://host:port``) on a Dask cluster. The
-    front does not depend on either.
+    front does not depend on either. ``time_budget_s`` spreads a wall-clock budget over the
+    tasks still to run: each task's genetic stage runs until its share is used (the front then
+    depends on the machine's speed and is not byte-reproducible).
     """
     from cablefam.optimizer.batch.workers import (StopFlag, make_task_specs, run_dask, run_local_processes,
                                      run_serial)
@@ -138,6 +153,13 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
     started = datetime.now(timezone.utc)
     t0 = time.perf_counter()
     specs = make_task_specs(sweep, settings, run_dir, checkpoint_every, checkpoint_seconds)
+    n_todo = sum(TaskStore(run_dir, s.member, s.catalog).read_result() is None for s in specs)
+    if time_budget_s is not None:
+        if not time_budget_s > 0:
+            raise InputError(f"time budget = {time_budget_s!r} s: must be > 0")
+        lanes = max(1, workers) if not scheduler else max(1, n_todo)
+        share = float(time_budget_s) * min(lanes, max(n_todo, 1)) / max(n_todo, 1)
+        specs = [replace(s, time_share_s=share) for s in specs]
     results: dict[tuple[str, str], TaskResult] = {}
     for spec in specs:
         stored = TaskStore(run_dir, spec.member, spec.catalog).read_result()
@@ -167,12 +189,12 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
         stop.uninstall()
     ordered = [results[(s.member, s.catalog)] for s in specs]
     write_outputs(sweep, settings, run_dir, ordered, started, time.perf_counter() - t0,
-                  resumed=len(specs) - len(todo), forced=force)
+                  resumed=len(specs) - len(todo), forced=force, time_budget_s=time_budget_s)
     return run_dir
 
 
 def resume_run(run_dir, *, force=False, progress=None, workers=1, scheduler=None,
-               checkpoint_every=None, checkpoint_seconds=30.0) -> Path:
+               checkpoint_every=None, checkpoint_seconds=30.0, time_budget_s=None) -> Path:
     """Continue a killed or interrupted run from its folder (``cablefam resume RUN``)."""
     from cablefam.optimizer.inputs.sweep_spec import load_sweep
 
@@ -190,4 +212,5 @@ def resume_run(run_dir, *, force=False, progress=None, workers=1, scheduler=None
     return run_sweep(sweep, run_dir.parent, seed=None, generations=None, population=None,
                      record_evaluated=st["record_evaluated"], progress=progress, resume=True,
                      force=force, workers=workers, scheduler=scheduler,
-                     checkpoint_every=checkpoint_every, checkpoint_seconds=checkpoint_seconds)
+                     checkpoint_every=checkpoint_every, checkpoint_seconds=checkpoint_seconds,
+                     time_budget_s=time_budget_s)

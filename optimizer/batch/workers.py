@@ -38,6 +38,8 @@ class TaskSpec:
     run_dir: str | None
     checkpoint_every: int | None
     checkpoint_seconds: float
+    time_share_s: float | None = None
+    """Wall-clock seconds of this task's share of a time budget (None: run the budget)."""
 
 
 def make_task_specs(sweep, settings, run_dir, checkpoint_every, checkpoint_seconds):
@@ -63,7 +65,9 @@ def execute_task(payload_json: str, spec: TaskSpec, progress=None, stop=None) ->
     result = run_task(sweep, member, spec.catalog, spec.seed, spec.generations,
                       spec.population, spec.record_evaluated, progress=progress, store=store,
                       checkpoint_every=spec.checkpoint_every,
-                      checkpoint_seconds=spec.checkpoint_seconds, stop=stop)
+                      checkpoint_seconds=spec.checkpoint_seconds, stop=stop,
+                      deadline=None if spec.time_share_s is None
+                      else time.perf_counter() + spec.time_share_s)
     if store is not None:
         store.write_result(result)
     return result

@@ -56,6 +56,18 @@ class SearchSpec(Record):
     shields: list[str] | None = None
     dielectrics: list[str] | None = None
     jackets: list[str] | None = None
+    evaluations_per_task: Annotated[int, Field(ge=64, le=10**10)] | None = None
+    """Evaluations per member x catalog task (both stages); default: see search.budget."""
+    resolution: dict[str, Annotated[float, Field(gt=0.0, allow_inf_nan=False)]] = {}
+    """Objective name -> resolution of the front in the objective's unit."""
+
+    @field_validator("resolution")
+    @classmethod
+    def _known_resolutions(cls, v):
+        for n in v:
+            if n not in OBJECTIVES:
+                raise ValueError(f"unknown objective {n!r} (known: {', '.join(OBJECTIVES)})")
+        return v
 
     @field_validator("objectives")
     @classmethod

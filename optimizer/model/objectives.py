@@ -39,3 +39,24 @@ def objective_matrix(values: dict, names) -> np.ndarray:
         v = np.asarray(values[o.column], dtype=float)
         cols.append(-v if o.maximise else v)
     return np.column_stack(cols)
+
+
+#: Default resolution of each objective, in the unit of its column: the search keeps one design
+#: per resolution box (epsilon-dominance), so two designs of a front differ by at least one step
+#: in some objective. Overridable per sweep (``[search.resolution]``).
+RESOLUTIONS = {
+    "attenuation": 0.01,          # dB/100 m
+    "mass": 0.1,                  # kg/km
+    "outer_diameter": 1e-5,       # m (0.01 mm)
+    "cost": 0.1,                  # currency units per km
+    "dc_loop_resistance": 0.01,   # ohm/km
+    "max_power": 1.0,             # W
+    "max_peak_voltage": 1.0,      # V
+    "impedance_yield": 1e-4,      # share
+}
+
+
+def resolutions(names, overrides=None) -> np.ndarray:
+    """Resolution of each named objective (defaults, then the sweep's overrides)."""
+    overrides = overrides or {}
+    return np.array([float(overrides.get(n, RESOLUTIONS[n])) for n in names])

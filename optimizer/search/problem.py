@@ -1,32 +1,43 @@
-"""The pymoo problem of one family member with one catalog: radii and materials -> F, G.
+"""The problem of one family member with one catalog: decision vectors -> designs -> F, G.
 
-Decision vector: the free geometry variables (those whose bounds differ), then one
-integer-coded variable per material choice with more than one candidate. Integer variables
-live in ``[-0.5, k - 0.5]`` and are rounded column-wise by :class:`CategoricalRounding`, so
-that the end categories get their fair share of samples and evaluation stays vectorized.
+Decision vector: the free variables of the reduced space, then one integer-coded variable per
+material choice with more than one candidate. When the dielectric radius is free it is not a
+variable: the *impedance offset* (in [-1, 1] of the tolerance band) takes its place and the
+radius is solved from it (:mod:`cablefam.optimizer.search.impedance_target`), so nearly every
+design lands in the impedance band. Integer variables live in ``[-0.5, k - 0.5]`` and are
+rounded column-wise by :class:`CategoricalRounding`, so that the end categories get their fair
+share of samples and evaluation stays vectorized.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import numpy as np
 from pymoo.core.problem import Problem
 from pymoo.core.repair import Repair
-from pymoo.core.sampling import Sampling
-from scipy.constants import mu_0, speed_of_light
 
 from cablefam.optimizer.model.constraints import (CONSTRAINTS, MIN_RADIUS_RATIO, NON_FINITE_MARGIN,
                                    constraint_margins)
 from cablefam.optimizer.model.evaluate import Designs, OperatingPoint, electrical_inner_radius, evaluate
+from cablefam.optimizer.search.archive import nondominated
+from cablefam.optimizer.search.impedance_target import (dielectric_radius_lossless,
+                                                        solve_dielectric_radius, target_impedance)
 from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS, MemberSpec, Sweep
 from cablefam.optimizer.model.tolerance import (common_draws, impedance_yield_analytic,
                                  impedance_yield_monte_carlo)
 from cablefam.optimizer.inputs.wire_size_table import standard_diameters
+from cablefam.physics.stranding import stranded_effective_radius
 from cablefam.physics.wire_sizes import snap_to_sizes
 
 MATERIAL_TABLES = ("conductor", "shield", "dielectric", "jacket")
+#: Name of the decision variable that replaces the dielectric radius (see the module docstring).
+IMPEDANCE_OFFSET = "impedance_offset"
+#: Seed of the Monte Carlo draws of the impedance yield (the same for every task and run seed).
+YIELD_DRAW_SEED = 0x7013
+#: Impedance-yield margin of a design whose yield the search did not compute (a tiny violation).
+UNKNOWN_YIELD_MARGIN = -1.0e-6
 _CATALOG_KIND = {"conductor": "conductor", "shield": "conductor", "dielectric": "dielectric",
                  "jacket": "jacket"}
 
@@ -41,6 +52,15 @@ class Layout:
     free_materials: tuple[str, ...]
     inner_radius_sizes: np.ndarray | None = None
     """Standard radii the centre conductor snaps to (None: continuous)."""
+    impedance_construction: bool = False
+    """The dielectric radius is solved from the impedance offset (see the module docstring)."""
+
+    @property
+    def variables(self) -> tuple[str, ...]:
+        """Names of the continuous decision variables, in decision-vector order."""
+        return tuple(IMPEDANCE_OFFSET if (k == "dielectric_radius_m"
+                                          and self.impedance_construction) else k
+                     for k in self.free_geometry)
 
     @property
     def n_var(self):
@@ -52,21 +72,28 @@ class Layout:
         return np.arange(n, n + len(self.free_materials))
 
     def lower_upper(self):
-        xl = [self.bounds[k][0] for k in self.free_geometry]
-        xu = [self.bounds[k][1] for k in self.free_geometry]
+        xl = [-1.0 if k == IMPEDANCE_OFFSET else self.bounds[k][0] for k in self.variables]
+        xu = [1.0 if k == IMPEDANCE_OFFSET else self.bounds[k][1] for k in self.variables]
         xl += [-0.5] * len(self.free_materials)
         xu += [len(self.material_ids[t]) - 0.5 for t in self.free_materials]
         return np.array(xl, dtype=float), np.array(xu, dtype=float)
 
     def decode(self, x):
-        """Geometry arrays [m] and material indices (int arrays) of a decision matrix."""
+        """Geometry arrays [m] and material indices (int arrays) of a decision matrix.
+
+        With the impedance construction, ``dielectric_radius_m`` is absent and
+        ``impedance_offset`` given instead (the radius needs the materials:
+        :meth:`MemberProblem.designs` solves it).
+        """
         x = np.atleast_2d(np.asarray(x, dtype=float))
         n = x.shape[0]
         geometry = {}
         col = 0
         for key in GEOMETRY_KEYS:
             if key in self.free_geometry:
-                geometry[key] = x[:, col].copy()
+                name = (IMPEDANCE_OFFSET if key == "dielectric_radius_m"
+                        and self.impedance_construction else key)
+                geometry[name] = x[:, col].copy()
                 col += 1
             else:
                 geometry[key] = np.full(n, self.bounds[key][0])
@@ -96,7 +123,8 @@ def make_layout(sweep: Sweep, catalog_name: str) -> Layout:
         lo, hi = bounds["inner_radius_m"]
         sizes = radii[(radii >= lo) & (radii <= hi)]
     return Layout(bounds=bounds, free_geometry=free_geometry, material_ids=dict(ids),
-                  free_materials=free_materials, inner_radius_sizes=sizes)
+                  free_materials=free_materials, inner_radius_sizes=sizes,
+                  impedance_construction="dielectric_radius_m" in free_geometry)
 
 
 class CategoricalRounding(Repair):
@@ -115,41 +143,6 @@ class CategoricalRounding(Repair):
         return X
 
 
-class ImpedanceSeededSampling(Sampling):
-    r"""Uniform random sampling in which a share of the samples is put on the impedance target.
-
-    The feasible band of a coax is a thin sliver of the (a, b) box: ``b/a`` must sit within a
-    few percent of :math:`\exp(2\pi\sqrt{\varepsilon_r} Z_0/\eta_0)`. For ``share`` of the
-    initial samples the dielectric radius is set from the sampled inner radius and dielectric
-    so that the lossless impedance falls uniformly within the member's tolerance band (clipped
-    to the bounds); the rest stay uniform so the whole box is still explored.
-    """
-
-    def __init__(self, share=0.5):
-        super().__init__()
-        self.share = share
-
-    def _do(self, problem, n_samples, *args, random_state=None, **kwargs):
-        xl, xu = problem.bounds()
-        x = xl + (xu - xl) * random_state.random((n_samples, problem.n_var))
-        x = problem.make_repair()._do(problem, x)
-        layout = problem.layout
-        if {"inner_radius_m", "dielectric_radius_m"} <= set(layout.free_geometry):
-            n_seed = int(round(self.share * n_samples))
-            rows = np.arange(n_seed)
-            computed, _, _ = problem.designs(x[rows])
-            eps = computed.dielectric["relative_permittivity"]
-            m = problem.member
-            z0 = m.impedance_ohm + m.impedance_tolerance_ohm * random_state.uniform(
-                -0.9, 0.9, n_seed)
-            eta_0 = mu_0 * speed_of_light
-            col_a = layout.free_geometry.index("inner_radius_m")
-            col_b = layout.free_geometry.index("dielectric_radius_m")
-            b = x[rows, col_a] * np.exp(2.0 * np.pi * np.sqrt(eps) * z0 / eta_0)
-            x[rows, col_b] = np.clip(b, xl[col_b], xu[col_b])
-        return x
-
-
 class MemberProblem(Problem):
     """Vectorized problem: one physics call per generation for the whole population."""
 
@@ -159,22 +152,49 @@ class MemberProblem(Problem):
         self.member = member
         self.catalog = next(c for c in sweep.catalogs if c.name == catalog_name)
         self.layout = make_layout(sweep, catalog_name)
+        self._tables = {t: self._property_table(t) for t in MATERIAL_TABLES}
+        if self.layout.impedance_construction:
+            self.layout = replace(self.layout, bounds={
+                **self.layout.bounds, "inner_radius_m": self._reachable_inner_radii()})
         self.objectives = tuple(sweep.spec.search.objectives)
         self.needs_max_power = any(OBJECTIVES[o].column == "max_power_w"
                                    for o in self.objectives)
         self.record_evaluated = record_evaluated
         self.evaluated: list[np.ndarray] = []
-        self._tables = {t: self._property_table(t) for t in MATERIAL_TABLES}
         tol = sweep.spec.tolerance
         self.spread = None if tol is None else tol.spread()
         self.draws = None
         if tol is not None and tol.method == "monte-carlo":
-            # common random numbers: fixed by the task seed, independent of the search's stream
-            draw_seed = np.random.SeedSequence([seed, 0x7013]).generate_state(1)[0]
-            self.draws = common_draws(self.spread, tol.samples, int(draw_seed))
+            # common random numbers: part of the problem, not of the search, so they do not
+            # depend on the run seed (every seed and every catalog is judged by the same draws)
+            self.draws = common_draws(self.spread, tol.samples, YIELD_DRAW_SEED)
         xl, xu = self.layout.lower_upper()
         super().__init__(n_var=self.layout.n_var, n_obj=len(self.objectives),
                          n_ieq_constr=len(CONSTRAINTS), xl=xl, xu=xu, vtype=float)
+
+    def _reachable_inner_radii(self) -> tuple[float, float]:
+        """Bounds of the centre-conductor radius within which the solved dielectric radius can
+        meet its own bounds and the member's outer-diameter limit (with 5 % slack for the lossy
+        correction); the sweep's bounds where nothing is gained. A presolve: it removes only
+        designs that the geometry or outer-diameter constraint would reject."""
+        m, bounds = self.member, self.layout.bounds
+        a_lo, a_hi = bounds["inner_radius_m"]
+        b_lo, b_hi = bounds["dielectric_radius_m"]
+        if m.max_outer_diameter_m is not None:
+            b_hi = min(b_hi, 0.5 * m.max_outer_diameter_m - bounds["shield_thickness_m"][0]
+                       - bounds["jacket_thickness_m"][0])
+        eps = self._tables["dielectric"]["relative_permittivity"]
+        strands = self.sweep.spec.search.inner_strands
+        k_el = 1.0 if strands == 1 else float(stranded_effective_radius(1.0, strands))
+        z_lo = target_impedance(m.impedance_ohm, m.impedance_tolerance_ohm, -1.0)
+        z_hi = target_impedance(m.impedance_ohm, m.impedance_tolerance_ohm, 1.0)
+        ratio_lo = dielectric_radius_lossless(1.0, eps.min(), z_lo)
+        ratio_hi = dielectric_radius_lossless(1.0, eps.max(), z_hi)
+        hi = min(a_hi, 1.05 * b_hi / (ratio_lo * k_el))
+        lo = max(a_lo, b_lo / (1.05 * ratio_hi * k_el))
+        if not lo < hi:  # nothing reachable: keep the sweep's bounds (all designs infeasible)
+            return a_lo, a_hi
+        return float(lo), float(hi)
 
     def _property_table(self, table):
         ids = self.layout.material_ids.get(table, ())
@@ -194,15 +214,18 @@ class MemberProblem(Problem):
         """Decode a decision matrix into :class:`Designs` (invalid radii made computable)."""
         geometry, idx = self.layout.decode(x)
         a = geometry["inner_radius_m"]
-        b = geometry["dielectric_radius_m"]
-        # b <= a is a constraint violation, not an error: compute with a harmless b instead
-        b_safe = np.where(b >= MIN_RADIUS_RATIO * a, b, 1.5 * a)
 
         def pick(table):
             t = self._tables[table]
             return None if t is None else {k: v[idx[table]] for k, v in t.items()}
 
         strands = self.sweep.spec.search.inner_strands
+        if self.layout.impedance_construction:
+            geometry["dielectric_radius_m"] = self.constructed_dielectric_radius(
+                geometry, pick("conductor"), pick("shield"), pick("dielectric"))
+        b = geometry["dielectric_radius_m"]
+        # b <= a is a constraint violation, not an error: compute with a harmless b instead
+        b_safe = np.where(b >= MIN_RADIUS_RATIO * a, b, 1.5 * a)
         computed = Designs(a, b_safe, geometry["shield_thickness_m"],
                            geometry["jacket_thickness_m"], inner=pick("conductor"),
                            shield=pick("shield"), dielectric=pick("dielectric"),
@@ -212,51 +235,118 @@ class MemberProblem(Problem):
                          inner_strands=strands)
         return computed, actual, idx
 
+    def constructed_dielectric_radius(self, geometry, inner, shield, dielectric):
+        """Dielectric radius [m] of the impedance offset, within the sweep's bounds."""
+        m = self.member
+        a = geometry["inner_radius_m"]
+        strands = self.sweep.spec.search.inner_strands
+        a_el = a if strands == 1 else stranded_effective_radius(a, strands)
+        target = target_impedance(m.impedance_ohm, m.impedance_tolerance_ohm,
+                                  geometry.pop(IMPEDANCE_OFFSET))
+        b = solve_dielectric_radius(a, a_el, geometry["shield_thickness_m"], m.frequency_hz,
+                                    target, inner, shield, dielectric, inner_strands=strands)
+        lo, hi = self.layout.bounds["dielectric_radius_m"]
+        return np.clip(b, lo, hi)
+
     def operating_point(self):
         m = self.member
         return OperatingPoint(frequency_hz=m.frequency_hz, peak_voltage_v=m.peak_voltage_v,
                               field_safety_factor=m.field_safety_factor, power_w=m.power_w,
                               ambient_c=m.ambient_c)
 
+    @property
+    def yield_in_search(self) -> bool:
+        """Whether the search needs the impedance yield (a constraint or an objective)."""
+        return self.spread is not None and (self.member.min_impedance_yield is not None
+                                            or "impedance_yield" in self.objectives)
+
     def evaluate_designs(self, x, include_max_power=None):
-        """Quantities and margins of a decision matrix (what ``_evaluate`` and the front use)."""
+        """Quantities and margins of a decision matrix (what the front and inspect use)."""
+        values, margins, idx, _ = self.evaluate_rows(x, include_max_power)
+        return values, margins, idx
+
+    def evaluate_rows(self, x, include_max_power=None, with_yield=True):
+        """Quantities, margins, material indices and the designs (with their solved radii)."""
         computed, actual, idx = self.designs(x)
         if include_max_power is None:
             include_max_power = self.needs_max_power
         values = evaluate(computed, self.operating_point(), include_max_power=include_max_power)
-        if self.spread is not None:
+        if self.spread is not None and with_yield:
             values.update(self.impedance_yield(computed, values))
+        margins = self._margins(values, computed, actual)
+        return values, margins, idx, actual
+
+    def _margins(self, values, computed, actual):
         diel_max = computed.dielectric.get("max_temperature_c")
         jacket_max = None if computed.jacket is None else computed.jacket.get("max_temperature_c")
-        margins = constraint_margins(values, actual, self.member, diel_max, jacket_max)
-        return values, margins, idx
+        return constraint_margins(values, actual, self.member, diel_max, jacket_max)
 
-    def impedance_yield(self, d: Designs, values) -> dict[str, np.ndarray]:
-        """Impedance yield and the 3-sigma impedance band of every design."""
+    def impedance_yield(self, d: Designs, values, rows=None) -> dict[str, np.ndarray]:
+        """Impedance yield and the 3-sigma impedance band of every design (or of ``rows``)."""
         m = self.member
-        scale = values["z0_ohm"] / values["z0_lossless_ohm"]
-        eps = d.dielectric["relative_permittivity"]
-        a = electrical_inner_radius(d)
+        sel = slice(None) if rows is None else rows
+        shape = np.shape(d.inner_radius)
+        scale = np.broadcast_to(values["z0_ohm"] / values["z0_lossless_ohm"], shape)[sel]
+        eps = np.broadcast_to(d.dielectric["relative_permittivity"], shape)[sel]
+        a = np.broadcast_to(electrical_inner_radius(d), shape)[sel]
+        b = d.dielectric_radius[sel]
         if self.draws is not None:
             y, lo, hi = impedance_yield_monte_carlo(
-                a, d.dielectric_radius, eps, m.impedance_ohm,
-                m.impedance_tolerance_ohm, self.spread, self.draws, scale)
+                a, b, eps, m.impedance_ohm, m.impedance_tolerance_ohm, self.spread, self.draws,
+                scale)
         else:
             y, lo, hi = impedance_yield_analytic(
-                a, d.dielectric_radius, eps, m.impedance_ohm,
-                m.impedance_tolerance_ohm, self.spread, scale)
+                a, b, eps, m.impedance_ohm, m.impedance_tolerance_ohm, self.spread, scale)
         return {"impedance_yield": y, "z0_3sigma_low_ohm": lo, "z0_3sigma_high_ohm": hi}
 
-    def _evaluate(self, x, out, *args, **kwargs):
-        values, margins, _ = self.evaluate_designs(x)
+    def evaluate_search(self, x, may_enter=None):
+        """Objectives F and constraints G (feasible when <= 0) of a batch, for the search.
+
+        The Monte Carlo impedance yield costs a hundred line evaluations per design, so it is
+        computed only where it can change the front: for designs that meet every other
+        constraint, that the archive does not already dominate (``may_enter``, a function of F)
+        and that are non-dominated among those (re-checked after each round of yields, so the
+        set is exact). Every other design gets a yield margin of :data:`UNKNOWN_YIELD_MARGIN`
+        (a tiny violation: it ranks below the feasible designs) and the optimistic yield 1 as
+        objective. Returns ``f, g, known`` with ``known`` False where the yield was skipped.
+        """
+        lazy = self.yield_in_search and self.draws is not None
+        values, margins, _, _ = self.evaluate_rows(x, with_yield=self.yield_in_search and not lazy)
+        computed = actual = None
+        n = len(x)
+        known = np.ones(n, dtype=bool)
+        if lazy:
+            computed, actual, _ = self.designs(x)
+            values["impedance_yield"] = np.ones(n)
+            margins = self._margins(values, computed, actual)
+            others = np.all(np.column_stack([margins[c] for c in CONSTRAINTS
+                                             if c != "impedance_yield"]) >= 0.0, axis=1)
+            f = objective_matrix(values, self.objectives)
+            pool = others & (np.ones(n, dtype=bool) if may_enter is None else may_enter(f))
+            known = np.zeros(n, dtype=bool)
+            while True:
+                rows = np.flatnonzero(pool)
+                front = rows[nondominated(f[rows])]
+                need = front[~known[front]]
+                if need.size == 0:
+                    break
+                values["impedance_yield"][need] = self.impedance_yield(
+                    computed, values, need)["impedance_yield"]
+                known[need] = True
+                f = objective_matrix(values, self.objectives)
+                margins = self._margins(values, computed, actual)
+                pool[need] &= margins["impedance_yield"][need] >= 0.0
+            margins["impedance_yield"] = np.where(known, margins["impedance_yield"],
+                                                  UNKNOWN_YIELD_MARGIN)
         f = objective_matrix(values, self.objectives)
         g = -np.column_stack([margins[c] for c in CONSTRAINTS])
         bad = ~np.all(np.isfinite(f), axis=1)
         if bad.any():  # never seen; kept so that a NaN can never reach a front
             f[bad] = 0.0
             g[bad, 0] = -NON_FINITE_MARGIN
+        return f, g, known
+
+    def _evaluate(self, x, out, *args, **kwargs):
+        f, g, _ = self.evaluate_search(x)
         out["F"] = f
         out["G"] = g
-        if self.record_evaluated:
-            self.evaluated.append(np.column_stack([x, f, g]))
-
