@@ -136,7 +136,8 @@ catalogs = ["{catalog}"]
 [search]
 objectives = ["attenuation", "mass"]
 population = 60
-generations = 100
+generations = 20
+evaluations_per_task = 20000
 inner_radius_m = [0.2e-3, 2.5e-3]
 dielectric_radius_m = [0.6e-3, 9.0e-3]
 shield_thickness_m = [0.3e-3, 0.3e-3]
@@ -210,8 +211,9 @@ def test_search_front_reaches_the_brute_force_front(two_objective):
           f"front rows), grid {hv_grid:.5f} ({two_objective['grid_evaluations']} evaluations, "
           f"{len(grid_front)} front rows); ratio {hv_search / hv_grid:.5f}, "
           f"evaluation share {share:.4f}")
-    assert hv_search >= 0.99 * hv_grid
-    assert share <= 0.05
+    # the search issue's target: >= 0.999 of a dense reference front, with a tenth of its cost
+    assert hv_search >= 0.999 * hv_grid
+    assert share <= 0.1
 
 
 @pytest.mark.slow
@@ -223,7 +225,7 @@ def test_different_seed_gives_a_different_front_of_similar_hypervolume(two_objec
     ideal, nadir = grid_front.min(axis=0), grid_front.max(axis=0)
     hv1, hv2 = hypervolume(f1, ideal, nadir), hypervolume(f2, ideal, nadir)
     print(f"\nhypervolume seed 1: {hv1:.5f}, seed 2: {hv2:.5f}")
-    assert hv2 == pytest.approx(hv1, rel=0.01)  # within 1 % on this converged problem
+    assert hv2 == pytest.approx(hv1, rel=0.002)  # the search issue's target: <= 0.2 %
 
 
 # ------------------------------------------------------------------- demo-like run folders
