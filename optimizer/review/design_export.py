@@ -25,13 +25,13 @@ def select_row(df, member: str, index: int, catalog: str | None = None):
     rows = df[df["member"] == member]
     if rows.empty:
         known = ", ".join(sorted(df["member"].unique()))
-        raise InputError(f"--member = {member!r}: not in this run (members: {known})")
+        raise InputError(f"member = {member!r}: not in this run (members: {known})")
     if catalog is not None:
         rows = rows[rows["catalog"] == catalog]
         if rows.empty:
-            raise InputError(f"--catalog = {catalog!r}: no rows of member {member!r}")
+            raise InputError(f"catalog = {catalog!r}: no rows of member {member!r}")
     if not 0 <= index < len(rows):
-        raise InputError(f"--index = {index}: member {member!r} has rows 0..{len(rows) - 1}")
+        raise InputError(f"index = {index}: member {member!r} has rows 0..{len(rows) - 1}")
     return rows.iloc[index]
 
 
