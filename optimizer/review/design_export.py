@@ -39,7 +39,7 @@ def _comment(text: str) -> str:
 
 def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
     """The design file's tables (materials inline) of one front row, its catalog name and
-    the catalog id of each material table."""
+    where each material table comes from (``conductor id 'copper'``)."""
     df, _ = read_front(run_dir)
     row = select_row(df, member, index, catalog)
     cat = run_catalog(run_dir, row["catalog"])
@@ -52,7 +52,7 @@ def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
         mid = row[table]
         if not mid:
             continue
-        ids[table] = mid
+        ids[table] = f"{kind} id {mid!r}"
         doc[table] = cat.get(kind, mid, f"run {run_dir}").model_dump(exclude_none=True)
     doc["operating"] = {k: float(row[k]) for k in _OPERATING if not math.isnan(float(row[k]))}
     return doc, row["catalog"], ids
@@ -62,7 +62,10 @@ def front_row_design_toml(run_dir, member: str, index: int, catalog: str | None 
     """A self-contained design file (materials inline) for one front row."""
     doc, catalog_name, ids = _front_row_document(run_dir, member, index, catalog)
     header = [f"Design exported from run {run_dir}: member {member}, catalog {catalog_name}, "
-              f"row {index}.",
-              "Materials copied inline from the run's catalog copy (catalog ids: "
-              + ", ".join(f"{table} {mid!r}" for table, mid in ids.items()) + ")."]
-    return "\n".join(_comment(line) for line in header) + "\n" + tomli_w.dumps(doc)
+              f"row {index}.", "Materials copied inline from the run's catalog copy."]
+    parts = ["\n".join(_comment(line) for line in header) + "\n"
+             + tomli_w.dumps({"name": doc.pop("name")})]
+    for table, values in doc.items():  # one table at a time: a comment above each material
+        comment = _comment(ids[table]) + "\n" if table in ids else ""
+        parts.append(comment + tomli_w.dumps({table: values}))
+    return "\n".join(parts)
