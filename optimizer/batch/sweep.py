@@ -69,7 +69,7 @@ def check_unchanged(state: dict, sweep: Sweep, force: bool) -> None:
         changed.append("the list of catalogs")
     if changed and not force:
         raise InputError("cannot resume: " + ", ".join(changed) + " changed since the run "
-                         "started (SHA-256 differs); pass --force to resume anyway")
+                         "started (SHA-256 differs); pass force=True to resume anyway")
 
 
 def prepare_run_folder(sweep: Sweep, out_dir: Path, overwrite: bool, settings: SweepSettings,
@@ -77,8 +77,9 @@ def prepare_run_folder(sweep: Sweep, out_dir: Path, overwrite: bool, settings: S
     run_dir = Path(out_dir) / sweep.spec.name
     started = (run_dir / STATE_FILE).exists() or (run_dir / FRONT_FILE).exists()
     if started and not (overwrite or resume):
-        raise InputError(f"run folder {run_dir} already holds a run; pass --resume to continue "
-                         "it, --overwrite to replace it, or change `name` in the sweep file")
+        raise InputError(f"run folder {run_dir} already holds a run; pass resume=True to "
+                         "continue it, overwrite=True to replace it, or change `name` in the "
+                         "sweep file")
     if overwrite and not resume:
         for sub in ("tasks", "inputs"):
             shutil.rmtree(run_dir / sub, ignore_errors=True)
@@ -103,7 +104,7 @@ def _settings(sweep: Sweep, seed, generations, population, record_evaluated) -> 
         population=spec.search.population if population is None else int(population),
         record_evaluated=record_evaluated)
     if settings.generations < 1 or settings.population < 4:
-        raise InputError(f"--generations = {settings.generations}, --population = "
+        raise InputError(f"generations = {settings.generations}, population = "
                          f"{settings.population}: need generations >= 1 and population >= 4")
     check_budget(sweep, settings)
     return settings
@@ -146,7 +147,7 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
         recorded = SweepSettings(**state["settings"])
         asked = (seed, generations, population)
         if any(v is not None for v in asked) and recorded != settings:
-            raise InputError(f"--seed/--generations/--population differ from the run being "
+            raise InputError(f"seed/generations/population: differ from the run being "
                              f"resumed ({state['settings']}); leave them out to resume")
         settings = recorded
     run_dir = prepare_run_folder(sweep, out_dir, overwrite, settings, resume)
@@ -202,8 +203,8 @@ def resume_run(run_dir, *, force=False, progress=None, workers=1, scheduler=None
     state = read_run_state(run_dir)
     sweep_path = Path(state["sweep_path"])
     if not sweep_path.is_file():
-        raise InputError(f"{run_dir}: the run's sweep file {sweep_path} is gone; resume with "
-                         "`cablefam sweep SWEEP.toml --resume` from its new place")
+        raise InputError(f"{run_dir}: the run's sweep file {sweep_path} is gone; run the "
+                         "sweep from its new place with resume=True")
     sweep = load_sweep(sweep_path)
     if Path(run_dir).resolve().name != sweep.spec.name:
         raise InputError(f"{run_dir}: folder name differs from the sweep's name "

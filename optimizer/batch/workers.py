@@ -193,12 +193,12 @@ def run_dask(payload_json, specs, on_result, progress, stop, scheduler):
     try:
         from dask.distributed import Client
     except ImportError:  # pragma: no cover - dask is a dependency
-        raise InputError(f"--scheduler = {scheduler!r}: dask[distributed] is not installed")
+        raise InputError(f"scheduler = {scheduler!r}: dask[distributed] is not installed")
     remote = [TaskSpec(**{**s.__dict__, "run_dir": None}) for s in specs]
     try:
         client = Client(scheduler, timeout="20s")
     except OSError as exc:
-        raise InputError(f"--scheduler = {scheduler!r}: cannot connect ({exc})") from None
+        raise InputError(f"scheduler = {scheduler!r}: cannot connect ({exc})") from None
     try:
         futures = [client.submit(execute_task, payload_json, s, pure=False,
                                  key=f"cablefam-{s.member}__{s.catalog}-{s.seed}")

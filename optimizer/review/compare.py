@@ -258,7 +258,7 @@ def compare_runs(run_dirs, member: str | None = None) -> Comparison:
     names += [m for p in run_dirs for m in dict.fromkeys(fronts[p]["member"]) if m not in names]
     if member is not None:
         if member not in names:
-            raise InputError(f"--member = {member!r}: not in these runs (members: "
+            raise InputError(f"member = {member!r}: not in these runs (members: "
                              f"{', '.join(names) or 'none'})")
         names = [member]
     members = []

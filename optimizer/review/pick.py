@@ -113,10 +113,10 @@ def apply_where(df: pd.DataFrame, where: str | None) -> pd.DataFrame:
         mask = df.eval(where)
     except Exception as exc:  # pandas raises many types for a bad expression; report any
         reason = str(exc).splitlines()[0] if str(exc) else type(exc).__name__
-        raise InputError(f"--where = {where!r}: not a valid condition over the front's "
+        raise InputError(f"where = {where!r}: not a valid condition over the front's "
                          f"columns ({type(exc).__name__}: {reason})") from None
     if not isinstance(mask, pd.Series) or mask.dtype != bool or len(mask) != len(df):
-        raise InputError(f"--where = {where!r}: must be a condition that is true or false for "
+        raise InputError(f"where = {where!r}: must be a condition that is true or false for "
                          "each row, e.g. \"outer_diameter_m < 8e-3 and dielectric == 'foam-pe'\"")
     return df[mask]
 
@@ -160,7 +160,7 @@ def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
     if method not in METHODS:
         raise InputError(f"method = {method!r}: use one of {', '.join(METHODS)}")
     if top < 1:
-        raise InputError(f"--top = {top}: must be >= 1")
+        raise InputError(f"top = {top}: must be >= 1")
     df, provenance = read_front(run_dir)
     objectives = tuple(provenance.get("objectives", ()))
     if not objectives or any(o not in OBJECTIVES for o in objectives):
@@ -170,26 +170,26 @@ def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
     if member is not None:
         if member not in members:
             known = ", ".join(members) or "none"
-            raise InputError(f"--member = {member!r}: not in this run (members: {known})")
+            raise InputError(f"member = {member!r}: not in this run (members: {known})")
         members = [member]
     if catalog is not None and catalog not in set(df["catalog"]):
         known = ", ".join(sorted(set(df["catalog"]))) or "none"
-        raise InputError(f"--catalog = {catalog!r}: not in this run (catalogs: {known})")
+        raise InputError(f"catalog = {catalog!r}: not in this run (catalogs: {known})")
     w_vec = t_vec = None
     w_map = t_map = None
     if method == "weights":
         if weights is None:
-            raise InputError("--weights: give name=value pairs, e.g. "
+            raise InputError("weights: give name=value pairs, e.g. "
                              + ",".join(f"{o}=1" for o in objectives))
-        w_map = parse_objective_values(weights, objectives, "--weights")
+        w_map = parse_objective_values(weights, objectives, "weights")
         w_vec = np.array([w_map.get(o, 0.0) for o in objectives])
         if np.any(w_vec < 0.0) or not w_vec.sum() > 0.0:
-            raise InputError(f"--weights = {weights!r}: weights must be >= 0 and not all zero")
+            raise InputError(f"weights = {weights!r}: weights must be >= 0 and not all zero")
     elif method == "nearest":
         if target is None:
-            raise InputError("--nearest: give the target per objective, e.g. "
+            raise InputError("target: give the target per objective, e.g. "
                              + ",".join(f"{o}=..." for o in objectives))
-        t_map = parse_objective_values(target, objectives, "--nearest")
+        t_map = parse_objective_values(target, objectives, "target")
         t_vec = np.array([t_map.get(o, np.nan) for o in objectives])
         # maximised objectives are negated in the matrix, so is their target
         t_vec = np.array([-v if OBJECTIVES[o].maximise else v for o, v in zip(objectives, t_vec)])

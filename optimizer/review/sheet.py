@@ -355,7 +355,7 @@ def write_sheets(result, out_dir) -> list[Path]:
     front, provenance = read_front(result.run_dir)
     out_dir = Path(out_dir)
     if out_dir.exists() and not out_dir.is_dir():
-        raise InputError(f"--sheet = {out_dir}: exists and is not a folder")
+        raise InputError(f"out_dir = {out_dir}: exists and is not a folder")
     paths: list[Path] = []
     for _, row in result.picks.iterrows():
         member_front = front[front["member"] == row["member"]]

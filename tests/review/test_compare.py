@@ -99,7 +99,7 @@ def test_refuses_different_operating_point(tiny_run, tmp_path):
 
 
 def test_unknown_member_and_repeated_run(tiny_run):
-    with pytest.raises(InputError, match="--member"):
+    with pytest.raises(InputError, match="^member = 'nobody'"):
         compare_runs([tiny_run], member="nobody")
     with pytest.raises(InputError, match="twice"):
         compare_runs([tiny_run, tiny_run])
