@@ -157,7 +157,7 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
     n_todo = sum(TaskStore(run_dir, s.member, s.catalog).read_result() is None for s in specs)
     if time_budget_s is not None:
         if not time_budget_s > 0:
-            raise InputError(f"time budget = {time_budget_s!r} s: must be > 0")
+            raise InputError(f"time_budget_s = {time_budget_s!r}: must be > 0")
         lanes = max(1, workers) if not scheduler else max(1, n_todo)
         share = float(time_budget_s) * min(lanes, max(n_todo, 1)) / max(n_todo, 1)
         specs = [replace(s, time_share_s=share) for s in specs]

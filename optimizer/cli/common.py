@@ -61,6 +61,10 @@ CheckpointEvery = Annotated[Optional[int], typer.Option(
 Force = Annotated[bool, typer.Option(
     "--force", help="Resume even if the sweep file or a catalog changed.")]
 Quiet = Annotated[bool, typer.Option("--quiet", help="No progress on stderr.")]
+TimeBudget = Annotated[Optional[str], typer.Option(
+    "--time-budget", metavar="DURATION", help="Wall-clock budget of the whole run (8h, 90m, "
+    "1h30m, seconds), spread over the tasks still to run; each task's genetic stage runs "
+    "until its share is used. Not byte-reproducible.")]
 
 
 def parse_workers(text: str) -> int:

@@ -13,7 +13,8 @@ from typing import Annotated, Optional
 
 import typer
 
-from cablefam.optimizer.cli.common import (CheckpointEvery, Force, Quiet, Scheduler, Workers,
+from cablefam.optimizer.cli.common import (CheckpointEvery, Force, Quiet, Scheduler, TimeBudget,
+                                           Workers,
                                            catalog_option, flags_for, member_option,
                                            out_dir_option, parse_workers)
 from cablefam.optimizer.errors import InputError
@@ -46,6 +47,7 @@ def sweep_command(
     workers: Workers = "1",
     scheduler: Scheduler = None,
     checkpoint_every: CheckpointEvery = None,
+    time_budget: TimeBudget = None,
     quiet: Quiet = False,
 ):
     """Search every family member x catalog and write the Pareto sets to runs/<name>/."""
@@ -63,8 +65,14 @@ def sweep_command(
             spec, out, seed=seed, generations=generations, population=population,
             record_evaluated=evaluated, overwrite=overwrite, resume=resume, force=force,
             workers=n_workers, scheduler=scheduler, checkpoint_every=checkpoint_every,
-            progress=_progress(quiet)))
+            time_budget_s=_seconds(time_budget), progress=_progress(quiet)))
     _report_run(run_dir, spec.spec.member[0].name)
+
+
+def _seconds(time_budget):
+    from cablefam.optimizer.inputs.durations import parse_duration
+
+    return None if time_budget is None else parse_duration(time_budget, "--time-budget")
 
 
 def resume_command(
@@ -73,6 +81,7 @@ def resume_command(
     workers: Workers = "1",
     scheduler: Scheduler = None,
     checkpoint_every: CheckpointEvery = None,
+    time_budget: TimeBudget = None,
     quiet: Quiet = False,
 ):
     """Continue a run: finished tasks kept, unfinished ones from their last checkpoint."""
@@ -83,7 +92,8 @@ def resume_command(
     with flags_for(**RESUME_FLAGS):
         run_dir = _interruptible(lambda: resume_run(
             run, force=force, workers=n_workers, scheduler=scheduler,
-            checkpoint_every=checkpoint_every, progress=_progress(quiet)))
+            checkpoint_every=checkpoint_every, time_budget_s=_seconds(time_budget),
+            progress=_progress(quiet)))
     df, _ = read_front(run_dir)
     _report_run(run_dir, str(df["member"].iloc[0]) if len(df) else "MEMBER")
 

@@ -45,7 +45,7 @@ def epsilon_filter(x: np.ndarray, f: np.ndarray, resolution: np.ndarray) -> np.n
     if n == 0:
         return np.zeros(0, dtype=int)
     box = boxes(f, resolution)
-    corner_distance = np.sum(((f - box * resolution) / resolution) ** 2, axis=1)
+    corner_distance = _corner_distance(f, box, resolution)
     # one design per box: nearest the lower corner; ties broken by f, then x (deterministic)
     keys = [x[:, j] for j in range(x.shape[1] - 1, -1, -1)]
     keys += [f[:, j] for j in range(f.shape[1] - 1, -1, -1)]
@@ -80,15 +80,29 @@ class EpsilonArchive:
         self.x, self.f = xs[keep], fs[keep]
 
     def may_enter(self, f) -> np.ndarray:
-        """False for designs whose box a box of the archive strictly dominates.
+        """False for designs that cannot enter the archive whatever their other properties.
 
-        Such a design can never enter the archive, whatever its other properties; the search
-        uses this to skip costly quantities (the Monte Carlo impedance yield) for them.
+        A design cannot enter when a box of the archive strictly dominates its box, or when
+        the archive already holds a design of its box that is as near the box's lower corner.
+        The search uses this to skip costly quantities (the Monte Carlo impedance yield).
         """
         f = np.asarray(f, dtype=float)
         if len(self.f) == 0 or len(f) == 0:
             return np.ones(len(f), dtype=bool)
-        return ~strictly_dominated_by(boxes(f, self.resolution), boxes(self.f, self.resolution))
+        own = boxes(self.f, self.resolution)
+        cand = boxes(f, self.resolution)
+        ok = ~strictly_dominated_by(cand, own)
+        # same box as an archive design: only a design nearer the corner may replace it
+        _, group = np.unique(np.vstack([own, cand]), axis=0, return_inverse=True)
+        group = group.reshape(-1)
+        held = np.full(group.max() + 1, np.inf)
+        held[group[:len(own)]] = _corner_distance(self.f, own, self.resolution)
+        ok &= _corner_distance(f, cand, self.resolution) < held[group[len(own):]]
+        return ok
+
+
+def _corner_distance(f, box, resolution):
+    return np.sum(((f - box * resolution) / resolution) ** 2, axis=1)
 
 
 def strictly_dominated_by(cand: np.ndarray, own: np.ndarray, chunk: int = 2048) -> np.ndarray:

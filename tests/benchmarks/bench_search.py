@@ -29,6 +29,7 @@ import argparse  # noqa: E402
 import json  # noqa: E402
 import statistics  # noqa: E402
 import time  # noqa: E402
+from dataclasses import replace  # noqa: E402
 
 import moocore  # noqa: E402
 import numpy as np  # noqa: E402
@@ -69,10 +70,16 @@ def main(argv=None):
     ap.add_argument("--member", default=None)
     ap.add_argument("--generations", type=int, default=None,
                     help="genetic generations instead of the sweep file's")
+    ap.add_argument("--evaluations", type=int, default=None,
+                    help="evaluations per task instead of the sweep file's")
     args = ap.parse_args(argv)
     sweep = load_sweep(demo_sweep_path())
     s = sweep.spec.search
     generations = args.generations or s.generations
+    if args.evaluations:
+        sweep = replace(sweep, spec=sweep.spec.model_copy(update={
+            "search": s.model_copy(update={"evaluations_per_task": args.evaluations})}))
+        s = sweep.spec.search
     budget = task_budget(s.population, generations, s.evaluations_per_task)
     print(f"bench_search: demo sweep, budget {budget.total} evaluations per task "
           f"({budget.dense} dense + {budget.population} x {budget.generations} genetic), "
