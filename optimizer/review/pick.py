@@ -28,7 +28,7 @@ import numpy as np
 import pandas as pd
 
 from cablefam.optimizer.errors import InputError
-from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix
+from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix, resolutions
 from cablefam.optimizer.run_folder.reader import read_front
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS
 from cablefam.optimizer.review.text_table import format_table
@@ -155,7 +155,9 @@ def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
     target : str or mapping, for ``method="nearest"``
         Target value per objective in the column's units; objectives left out are ignored.
     top : int
-        Designs kept per member, >= 1.
+        Designs kept per member, >= 1. Two picks always differ by more than one resolution
+        step (the run's, see :data:`cablefam.optimizer.model.objectives.RESOLUTIONS`) in at
+        least one objective: a design next to a better-ranked one is passed over.
     """
     if method not in METHODS:
         raise InputError(f"method = {method!r}: use one of {', '.join(METHODS)}")
@@ -194,6 +196,8 @@ def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
         # maximised objectives are negated in the matrix, so is their target
         t_vec = np.array([-v if OBJECTIVES[o].maximise else v for o, v in zip(objectives, t_vec)])
 
+    # designs closer than one resolution step in every objective count as one
+    resolution = resolutions(objectives, provenance.get("resolution"))
     rows = df[df["member"].isin(members)]
     if catalog is not None:
         rows = rows[rows["catalog"] == catalog]
@@ -212,7 +216,7 @@ def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
         candidates[name] = len(sub)
         score, order = _rank(f, method, w_vec, t_vec)
         pw = tradeoff.pseudo_weights(f)
-        chosen = order[:top]
+        chosen = tradeoff.distinct_first(f, order, resolution, top)
         out = sub.iloc[chosen].copy()
         out.insert(0, "rank", np.arange(1, len(chosen) + 1))
         out.insert(3, INDEX_COLUMN, position.loc[out.index].to_numpy())

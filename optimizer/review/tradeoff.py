@@ -200,3 +200,20 @@ def hypervolume(f_normalized, reference) -> float:
     if f.size == 0:
         return 0.0
     return float(HV(ref_point=np.asarray(reference, dtype=float))(_as_matrix(f)))
+
+
+def distinct_first(f, order, resolution, n: int) -> np.ndarray:
+    """The first ``n`` rows of ``order`` that differ from every row taken before them by more
+    than one resolution step in at least one objective (greedy, in ranking order)."""
+    f = _as_matrix(f)
+    resolution = np.asarray(resolution, dtype=float)
+    excluded = np.zeros(len(f), dtype=bool)
+    taken = []
+    for i in order:
+        if len(taken) == n:
+            break
+        if excluded[i]:
+            continue
+        taken.append(i)
+        excluded |= np.all(np.abs(f - f[i]) <= resolution, axis=1)
+    return np.asarray(taken, dtype=int)

@@ -39,6 +39,14 @@ def nondominated(f: np.ndarray) -> np.ndarray:
     return moocore.is_nondominated(f, keep_weakly=True)
 
 
+def pareto_rank(f: np.ndarray) -> np.ndarray:
+    """Pareto rank of each row (0: non-dominated; equal rows share a rank)."""
+    f = np.asarray(f, dtype=float)
+    if f.shape[1] == 1:
+        return np.unique(f[:, 0], return_inverse=True)[1].reshape(-1)
+    return moocore.pareto_rank(f)
+
+
 def epsilon_filter(x: np.ndarray, f: np.ndarray, resolution: np.ndarray) -> np.ndarray:
     """Row indices (ascending) of the epsilon-Pareto set of a batch of feasible designs."""
     n = len(f)

@@ -20,7 +20,7 @@ from pymoo.core.repair import Repair
 from cablefam.optimizer.model.constraints import (CONSTRAINTS, MIN_RADIUS_RATIO, NON_FINITE_MARGIN,
                                    constraint_margins)
 from cablefam.optimizer.model.evaluate import Designs, OperatingPoint, electrical_inner_radius, evaluate
-from cablefam.optimizer.search.archive import nondominated
+from cablefam.optimizer.search.archive import pareto_rank
 from cablefam.optimizer.search.impedance_target import (dielectric_radius_lossless,
                                                         solve_dielectric_radius, target_impedance)
 from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix
@@ -36,6 +36,8 @@ MATERIAL_TABLES = ("conductor", "shield", "dielectric", "jacket")
 IMPEDANCE_OFFSET = "impedance_offset"
 #: Seed of the Monte Carlo draws of the impedance yield (the same for every task and run seed).
 YIELD_DRAW_SEED = 0x7013
+#: Fewest designs whose Monte Carlo yield is computed in one round (one array operation).
+YIELD_BLOCK = 256
 #: Impedance-yield margin of a design whose yield the search did not compute (a tiny violation).
 UNKNOWN_YIELD_MARGIN = -1.0e-6
 _CATALOG_KIND = {"conductor": "conductor", "shield": "conductor", "dielectric": "dielectric",
@@ -304,9 +306,9 @@ class MemberProblem(Problem):
 
         The Monte Carlo impedance yield costs a hundred line evaluations per design, so it is
         computed only where it can change the front: for designs that meet every other
-        constraint, that the archive does not already dominate (``may_enter``, a function of F)
-        and that are non-dominated among those (re-checked after each round of yields, so the
-        set is exact). Every other design gets a yield margin of :data:`UNKNOWN_YIELD_MARGIN`
+        constraint, that the archive does not already dominate (``may_enter``, a function of F),
+        in rounds over the best Pareto ranks of those until the non-dominated ones are all
+        known and meet the limit (so the archive gets exactly what a full evaluation gives). Every other design gets a yield margin of :data:`UNKNOWN_YIELD_MARGIN`
         (a tiny violation: it ranks below the feasible designs) and the optimistic yield 1 as
         objective. Returns ``f, g, known`` with ``known`` False where the yield was skipped.
         """
@@ -324,18 +326,26 @@ class MemberProblem(Problem):
             f = objective_matrix(values, self.objectives)
             pool = others & (np.ones(n, dtype=bool) if may_enter is None else may_enter(f))
             known = np.zeros(n, dtype=bool)
+            limit = self.member.min_impedance_yield
             while True:
                 rows = np.flatnonzero(pool)
-                front = rows[nondominated(f[rows])]
-                need = front[~known[front]]
-                if need.size == 0:
+                if rows.size == 0:
                     break
-                values["impedance_yield"][need] = self.impedance_yield(
-                    computed, values, need)["impedance_yield"]
+                rank = pareto_rank(f[rows])
+                if known[rows[rank == 0]].all():
+                    break  # the pool's own front is exact: nothing below it can enter
+                # the unknown rows of the best ranks, at least YIELD_BLOCK of them at a time
+                order = np.argsort(rank, kind="stable")
+                unknown = order[~known[rows[order]]]
+                cutoff = rank[unknown[min(YIELD_BLOCK, len(unknown)) - 1]]
+                need = rows[unknown[rank[unknown] <= cutoff]]
+                y = self.impedance_yield(computed, values, need)["impedance_yield"]
+                values["impedance_yield"][need] = y
                 known[need] = True
+                if limit is not None:
+                    pool[need] &= y >= limit
                 f = objective_matrix(values, self.objectives)
-                margins = self._margins(values, computed, actual)
-                pool[need] &= margins["impedance_yield"][need] >= 0.0
+            margins = self._margins(values, computed, actual)
             margins["impedance_yield"] = np.where(known, margins["impedance_yield"],
                                                   UNKNOWN_YIELD_MARGIN)
         f = objective_matrix(values, self.objectives)
