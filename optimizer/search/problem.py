@@ -20,15 +20,12 @@ from cablefam.optimizer.model.constraints import (CONSTRAINTS, MIN_RADIUS_RATIO,
                                    constraint_margins)
 from cablefam.optimizer.model.evaluate import Designs, OperatingPoint, electrical_inner_radius, evaluate
 from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix
+from cablefam.optimizer.model.slots import SLOT_KINDS, SLOT_NAMES
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS, MemberSpec, Sweep
 from cablefam.optimizer.model.tolerance import (common_draws, impedance_yield_analytic,
                                  impedance_yield_monte_carlo)
 from cablefam.optimizer.inputs.wire_size_table import standard_diameters
 from cablefam.physics.wire_sizes import snap_to_sizes
-
-MATERIAL_TABLES = ("conductor", "shield", "dielectric", "jacket")
-_CATALOG_KIND = {"conductor": "conductor", "shield": "conductor", "dielectric": "dielectric",
-                 "jacket": "jacket"}
 
 
 @dataclass(frozen=True)
@@ -74,7 +71,7 @@ class Layout:
             geometry["inner_radius_m"] = 0.5 * snap_to_sizes(2.0 * geometry["inner_radius_m"],
                                                              2.0 * self.inner_radius_sizes)
         indices = {}
-        for table in MATERIAL_TABLES:
+        for table in SLOT_NAMES:
             if table in self.free_materials:
                 k = len(self.material_ids[table])
                 indices[table] = np.clip(np.floor(x[:, col] + 0.5), 0, k - 1).astype(int)
@@ -89,7 +86,7 @@ def make_layout(sweep: Sweep, catalog_name: str) -> Layout:
     bounds = {k: tuple(getattr(s, k)) for k in GEOMETRY_KEYS}
     free_geometry = tuple(k for k in GEOMETRY_KEYS if bounds[k][1] > bounds[k][0])
     ids = sweep.materials[catalog_name]
-    free_materials = tuple(t for t in MATERIAL_TABLES if len(ids.get(t, ())) > 1)
+    free_materials = tuple(t for t in SLOT_NAMES if len(ids.get(t, ())) > 1)
     sizes = None
     if s.inner_diameter_series is not None:
         radii = 0.5 * standard_diameters(s.inner_diameter_series)
@@ -164,7 +161,7 @@ class MemberProblem(Problem):
                                    for o in self.objectives)
         self.record_evaluated = record_evaluated
         self.evaluated: list[np.ndarray] = []
-        self._tables = {t: self._property_table(t) for t in MATERIAL_TABLES}
+        self._tables = {t: self._property_table(t) for t in SLOT_NAMES}
         tol = sweep.spec.tolerance
         self.spread = None if tol is None else tol.spread()
         self.draws = None
@@ -180,7 +177,7 @@ class MemberProblem(Problem):
         ids = self.layout.material_ids.get(table, ())
         if not ids:
             return None
-        records = [self.catalog.get(_CATALOG_KIND[table], i, table) for i in ids]
+        records = [self.catalog.get(SLOT_KINDS[table], i, table) for i in ids]
         keys = [k for k, v in records[0].model_dump().items() if isinstance(v, (int, float))
                 and not isinstance(v, bool)]
         return {k: np.array([getattr(r, k) for r in records], dtype=float) for k in keys}
