@@ -208,7 +208,10 @@ def problem_line(err: dict, where: str, model: type[BaseModel], table: str | Non
         return f"{head} {key} = {value!r}: unknown key{known}"
     if kind in _NOT_A_TABLE and _is_table(types[-1]):
         return f"{head} {key} = {value!r}: must be a table"
-    return f"{head} {key} = {value!r}: {err['msg']}"
+    message = err["msg"]
+    if kind == "value_error":  # a field validator's ValueError: its text, without the prefix
+        message = str(err["ctx"]["error"])
+    return f"{head} {key} = {value!r}: {message}"
 
 
 def validation_problems(exc: ValidationError, where: str, model: type[BaseModel],
