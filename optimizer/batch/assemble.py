@@ -15,8 +15,9 @@ from cablefam.optimizer.cautions import CAUTION_LINES
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS
 from cablefam.optimizer.model.constraints import CONSTRAINTS
 from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix
+from cablefam.optimizer.model.slots import SLOT_NAMES
 from cablefam.optimizer.run_folder.files import EVALUATED_FILE, FRONT_FILE, RUN_FILE, write_parquet
-from cablefam.optimizer.search.problem import MATERIAL_TABLES, MemberProblem
+from cablefam.optimizer.search.problem import MemberProblem
 
 #: Operating-point columns copied from the member into every row.
 MEMBER_COLUMNS = ("impedance_ohm", "impedance_tolerance_ohm", "frequency_hz", "power_w",
@@ -39,7 +40,7 @@ def front_frame(problem: MemberProblem, x: np.ndarray) -> pd.DataFrame:
     n = len(x)
     cols: dict[str, object] = {"member": [problem.member.name] * n,
                                "catalog": [problem.catalog.name] * n}
-    for table in MATERIAL_TABLES:
+    for table in SLOT_NAMES:
         ids = problem.layout.material_ids.get(table, ())
         cols[table] = [ids[i] for i in idx[table]] if ids else [""] * n
     for key in GEOMETRY_KEYS:
@@ -69,7 +70,7 @@ def evaluated_frame(problem: MemberProblem, rows: np.ndarray) -> pd.DataFrame:
     geometry = design_geometry(actual)
     cols: dict[str, object] = {"member": [problem.member.name] * len(x),
                                "catalog": [problem.catalog.name] * len(x)}
-    for table in MATERIAL_TABLES:
+    for table in SLOT_NAMES:
         ids = problem.layout.material_ids.get(table, ())
         cols[table] = [ids[i] for i in idx[table]] if ids else [""] * len(x)
     for key in GEOMETRY_KEYS:

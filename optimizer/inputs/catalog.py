@@ -8,15 +8,29 @@ import tomllib
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from pydantic import ValidationError
+from pydantic import ValidationError, create_model
 
 from cablefam.optimizer.errors import InputError
-from cablefam.optimizer.inputs.materials import (CatalogConductor, CatalogDielectric, CatalogJacket, read_toml,
-                                 validation_problems)
+from cablefam.optimizer.inputs.materials import CATALOG_RECORDS, Record, read_toml, validation_problems
+from cablefam.optimizer.model.slots import CATALOG_KINDS
 
 #: Kind of material -> record model. The table names are a contract.
-KINDS = {"conductor": CatalogConductor, "dielectric": CatalogDielectric, "jacket": CatalogJacket}
-_HEADER_KEYS = {"name", "description", "source"}
+KINDS = {kind: CATALOG_RECORDS[kind] for kind in CATALOG_KINDS}
+
+
+class CatalogHeader(Record):
+    """The ``[catalog]`` table."""
+
+    name: str
+    description: str = ""
+    source: str | None = None
+
+
+#: A whole catalog file: the header and one mapping id -> record per kind (every kind optional).
+CatalogFile = create_model(
+    "CatalogFile", __base__=Record, __doc__="A catalog file: [catalog] and [kind.<id>] tables.",
+    catalog=(CatalogHeader, ...),
+    **{kind: (dict[str, model], {}) for kind, model in KINDS.items()})
 
 
 @dataclass(frozen=True)
@@ -68,43 +82,12 @@ def catalog_from_text(text: str, path) -> Catalog:
 
 
 def _problems_of_raw(raw: dict, path: Path, sha256: str) -> tuple[list[str], Catalog | None]:
-    problems: list[str] = []
-    header = raw.get("catalog")
-    if not isinstance(header, dict):
-        problems.append(f"{path}: [catalog]: required table is missing")
-        header = {}
-    else:
-        for key in header:
-            if key not in _HEADER_KEYS:
-                problems.append(f"{path}: [catalog] {key} = {header[key]!r}: unknown key")
-        if not isinstance(header.get("name"), str):
-            problems.append(f"{path}: [catalog] name = {header.get('name')!r}: "
-                            "must be a string")
-    for key in raw:
-        if key != "catalog" and key not in KINDS:
-            problems.append(f"{path}: [{key}]: unknown table (allowed: catalog, "
-                            + ", ".join(KINDS) + ")")
-    materials: dict[str, dict[str, object]] = {}
-    for kind, model in KINDS.items():
-        materials[kind] = {}
-        entries = raw.get(kind, {})
-        if not isinstance(entries, dict):
-            problems.append(f"{path}: [{kind}] must hold tables [{kind}.<id>]")
-            continue
-        for material_id, data in entries.items():
-            table = f"{kind}.{material_id}"
-            if not isinstance(data, dict):
-                problems.append(f"{path}: [{kind}] {material_id} = {data!r}: must be a table "
-                                f"[{table}]")
-                continue
-            try:
-                materials[kind][material_id] = model.model_validate(data)
-            except ValidationError as exc:
-                problems.extend(validation_problems(exc, str(path), table))
-    if problems:
-        return problems, None
-    return [], Catalog(name=header["name"], description=header.get("description", ""),
-                       path=path, sha256=sha256, materials=materials)
+    try:
+        spec = CatalogFile.model_validate(raw)
+    except ValidationError as exc:
+        return validation_problems(exc, str(path), CatalogFile), None
+    return [], Catalog(name=spec.catalog.name, description=spec.catalog.description, path=path,
+                       sha256=sha256, materials={kind: dict(getattr(spec, kind)) for kind in KINDS})
 
 
 def load_catalog(path) -> Catalog:

@@ -22,25 +22,21 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from pathlib import Path
-from typing import Annotated, Literal
+from typing import Annotated, Any, Literal
 
 import numpy as np
-from pydantic import Field
+from pydantic import Field, ValidationError, create_model, model_validator
 
-from cablefam.optimizer.inputs.catalog import Catalog, load_catalog
 from cablefam.optimizer.errors import InputError
-from cablefam.optimizer.inputs.materials import (ConductorMaterial, DielectricMaterial, JacketMaterial, Positive,
-                                 Record, Temperature, read_toml, validate_record)
+from cablefam.optimizer.inputs.catalog import Catalog, load_catalog
+from cablefam.optimizer.inputs.materials import (DESIGN_RECORDS, ConductorMaterial,
+                                                 DielectricMaterial, JacketMaterial, Positive,
+                                                 Record, Temperature, read_toml, rule_error,
+                                                 validate_record, validation_problems)
+from cablefam.optimizer.model.slots import MATERIAL_SLOTS
 
-_TOP_KEYS = {"name", "description", "catalog", "geometry", "conductor", "shield", "dielectric",
-             "jacket", "operating"}
-#: design-file table -> (catalog kind, record model)
-MATERIAL_TABLES = {
-    "conductor": ("conductor", ConductorMaterial),
-    "shield": ("conductor", ConductorMaterial),
-    "dielectric": ("dielectric", DielectricMaterial),
-    "jacket": ("jacket", JacketMaterial),
-}
+#: design-file table -> (catalog kind, record model), one entry per material slot
+MATERIAL_TABLES = {s.name: (s.kind, DESIGN_RECORDS[s.kind]) for s in MATERIAL_SLOTS}
 
 
 class Geometry(Record):
@@ -53,6 +49,19 @@ class Geometry(Record):
     eccentricity_m: Annotated[float, Field(ge=0, lt=1.0)] = 0.0
     inner_strands: Literal[1, 7, 19, 37] = 1
 
+    @model_validator(mode="after")
+    def _conductors_apart(self):
+        """b > a, and the offset centre conductor does not touch the shield."""
+        a, b = self.inner_radius_m, self.dielectric_radius_m
+        if b <= a:
+            raise rule_error("dielectric_radius_m", b, f"must be greater than inner_radius_m "
+                                                       f"= {a!r}")
+        if self.eccentricity_m >= b - a:
+            raise rule_error("eccentricity_m", self.eccentricity_m,
+                             f"must be less than dielectric_radius_m - inner_radius_m = "
+                             f"{b - a!r} (the conductors touch)")
+        return self
+
 
 class Operating(Record):
     """Operating point of one design."""
@@ -63,6 +72,17 @@ class Operating(Record):
     field_safety_factor: Annotated[float, Field(ge=1.0)] = 1.0
     power_w: Annotated[float, Field(ge=0)] | None = None
     ambient_c: Temperature = 20.0
+
+
+#: The file's top level: the slot tables stay raw here (an ``id`` pulls a catalog record in
+#: first), each is validated as its record model after that merge.
+DesignFile = create_model(
+    "DesignFile", __base__=Record, __doc__="Top level of a design file.",
+    name=(str | None, None), description=(str | None, None), catalog=(str | None, None),
+    geometry=(Geometry, ...),
+    **{s.name: (dict[str, Any] | None, None) if s.optional else (dict[str, Any], ...)
+       for s in MATERIAL_SLOTS},
+    operating=(Operating, ...))
 
 
 @dataclass(frozen=True)
@@ -80,22 +100,8 @@ class Design:
     catalog: Catalog | None = None
 
 
-def check_geometry(g: Geometry, where: str) -> None:
-    """The one geometric condition pydantic cannot see field by field: b > a."""
-    if g.dielectric_radius_m <= g.inner_radius_m:
-        raise InputError(f"{where}: [geometry] dielectric_radius_m = {g.dielectric_radius_m!r}: "
-                         f"must be greater than inner_radius_m = {g.inner_radius_m!r}")
-    if g.eccentricity_m >= g.dielectric_radius_m - g.inner_radius_m:
-        raise InputError(f"{where}: [geometry] eccentricity_m = {g.eccentricity_m!r}: must be "
-                         "less than dielectric_radius_m - inner_radius_m = "
-                         f"{g.dielectric_radius_m - g.inner_radius_m!r} (the conductors touch)")
-
-
-def _material(raw: dict, table: str, catalog: Catalog | None, where: str):
+def _material(data: dict, table: str, catalog: Catalog | None, where: str):
     kind, model = MATERIAL_TABLES[table]
-    data = raw.get(table)
-    if not isinstance(data, dict):
-        raise InputError(f"{where}: [{table}] must be a table, got {data!r}")
     data = dict(data)
     material_id = data.pop("id", None)
     if material_id is not None:
@@ -112,33 +118,22 @@ def _material(raw: dict, table: str, catalog: Catalog | None, where: str):
 
 def parse_design(raw: dict, where: str, base_dir: Path) -> Design:
     """Validate a parsed design table (from TOML or built by a tool)."""
-    for key in raw:
-        if key not in _TOP_KEYS:
-            raise InputError(f"{where}: {key} = {raw[key]!r}: unknown key (allowed: "
-                             + ", ".join(sorted(_TOP_KEYS)) + ")")
-    for table in ("geometry", "conductor", "shield", "dielectric", "operating"):
-        if table not in raw:
-            raise InputError(f"{where}: [{table}]: required table is missing")
-    catalog = None
-    if "catalog" in raw:
-        if not isinstance(raw["catalog"], str):
-            raise InputError(f"{where}: catalog = {raw['catalog']!r}: must be a path string")
-        catalog = load_catalog(base_dir / raw["catalog"])
-    geometry = validate_record(Geometry, raw["geometry"], where, "geometry")
-    check_geometry(geometry, where)
-    operating = validate_record(Operating, raw["operating"], where, "operating")
+    try:
+        spec = DesignFile.model_validate(raw)
+    except ValidationError as exc:
+        raise InputError(validation_problems(exc, where, DesignFile)[0]) from None
+    catalog = None if spec.catalog is None else load_catalog(base_dir / spec.catalog)
     ids = {}
     records = {}
     for table in MATERIAL_TABLES:
-        if table == "jacket" and "jacket" not in raw:
+        data = getattr(spec, table)
+        if data is None:
             records[table], ids[table] = None, None
             continue
-        records[table], ids[table] = _material(raw, table, catalog, where)
-    name = raw.get("name", Path(where).stem)
-    if not isinstance(name, str):
-        raise InputError(f"{where}: name = {name!r}: must be a string")
-    return Design(name=name, geometry=geometry, operating=operating, material_ids=ids,
-                  catalog=catalog, **records)
+        records[table], ids[table] = _material(data, table, catalog, where)
+    name = spec.name if spec.name is not None else Path(where).stem
+    return Design(name=name, geometry=spec.geometry, operating=spec.operating,
+                  material_ids=ids, catalog=catalog, **records)
 
 
 def load_design(path) -> Design:

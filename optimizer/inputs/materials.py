@@ -1,18 +1,24 @@
 """Material records shared by design files and catalogs, validated with pydantic.
 
-One format serves both: a design file's ``[conductor]``, ``[shield]``, ``[dielectric]`` and
-``[jacket]`` tables take the same keys as a catalog's ``[conductor.<id>]`` tables. In a design
+One format serves both: a design file's slot tables (``[conductor]``, ``[shield]``,
+``[dielectric]``, ``[jacket]``: :mod:`cablefam.optimizer.model.slots`) take the same keys as
+the catalog tables of the slot's kind (``[conductor.<id>]`` for both conductor and shield). In a design
 file the keys that only the thermal rating, mass or cost need are optional; in a catalog every
 physical key is required (:class:`CatalogConductor` and friends).
+
+Problems come out as one line each, ``file: [table] key = value: message``
+(:func:`problem_line`); rules across fields are model validators raising :func:`rule_error`.
 """
 
 from __future__ import annotations
 
 import tomllib
 from pathlib import Path
-from typing import Annotated
+from types import UnionType
+from typing import Annotated, Union, get_args, get_origin
 
 from pydantic import BaseModel, ConfigDict, Field, ValidationError
+from pydantic_core import PydanticCustomError
 
 from cablefam.optimizer.errors import InputError
 
@@ -23,6 +29,10 @@ Temperature = Annotated[float, Field(ge=TEMPERATURE_RANGE_C[0], le=TEMPERATURE_R
 Positive = Annotated[float, Field(gt=0)]
 Density = Annotated[float, Field(gt=0, le=25_000)]
 Price = Annotated[float, Field(ge=0)]
+#: Error type of :func:`rule_error`.
+RULE_ERROR = "rule"
+#: pydantic error types of a value that should have been a table.
+_NOT_A_TABLE = ("model_type", "dict_type", "model_attributes_type")
 
 
 class Record(BaseModel):
@@ -93,6 +103,14 @@ class CatalogJacket(JacketMaterial):
     source: str
 
 
+#: Catalog kind (:data:`cablefam.optimizer.model.slots.CATALOG_KINDS`) -> record of a design
+#: file's slot table of that kind, and of a catalog's ``[kind.<id>]`` table.
+DESIGN_RECORDS = {"conductor": ConductorMaterial, "dielectric": DielectricMaterial,
+                  "jacket": JacketMaterial}
+CATALOG_RECORDS = {"conductor": CatalogConductor, "dielectric": CatalogDielectric,
+                   "jacket": CatalogJacket}
+
+
 def read_toml(path) -> dict:
     """Parse a TOML file; an unreadable or malformed file is an :class:`InputError`."""
     path = Path(path)
@@ -109,20 +127,97 @@ def read_toml(path) -> dict:
         raise InputError(f"{path}: cannot read ({exc})") from None
 
 
-def validation_problems(exc: ValidationError, where: str, table: str) -> list[str]:
-    """One line per pydantic error: ``where: [table] key = value: message``."""
-    lines = []
-    for err in exc.errors():
-        loc = [str(p) for p in err["loc"]]
-        key = ".".join(loc) if loc else "(table)"
-        msg = err["msg"]
-        if err["type"] == "missing":
-            lines.append(f"{where}: [{table}] {key}: required key is missing")
-        elif err["type"] == "extra_forbidden":
-            lines.append(f"{where}: [{table}] {key} = {err['input']!r}: unknown key")
+def rule_error(key: str, value, reason: str) -> PydanticCustomError:
+    """The error a model validator raises for a rule across fields: it names the key (dotted
+    below the model that checks it) and the value, as every other problem line does."""
+    return PydanticCustomError(RULE_ERROR, "{reason}", {"key": key, "value": value,
+                                                          "reason": reason})
+
+
+def _unwrap(tp):
+    """``X`` of ``Annotated[X, ...]`` and of ``X | None``."""
+    while True:
+        origin = get_origin(tp)
+        if origin is Annotated:
+            tp = get_args(tp)[0]
+        elif origin in (Union, UnionType):
+            args = [a for a in get_args(tp) if a is not type(None)]
+            if len(args) != 1:
+                return tp
+            tp = args[0]
         else:
-            lines.append(f"{where}: [{table}] {key} = {err.get('input')!r}: {msg}")
-    return lines
+            return tp
+
+
+def _is_model(tp) -> bool:
+    tp = _unwrap(tp)
+    return isinstance(tp, type) and issubclass(tp, BaseModel)
+
+
+def _is_table(tp) -> bool:
+    """A TOML table: a model or a mapping."""
+    tp = _unwrap(tp)
+    return _is_model(tp) or tp is dict or get_origin(tp) is dict
+
+
+def _entry_type(tp, part):
+    """Type of entry ``part`` of ``tp`` (model field, mapping value, list item), or None."""
+    tp = _unwrap(tp)
+    if _is_model(tp):
+        field = tp.model_fields.get(part) if isinstance(part, str) else None
+        return None if field is None else field.annotation
+    if get_origin(tp) in (dict, list):
+        return get_args(tp)[-1]
+    return None
+
+
+def problem_line(err: dict, where: str, model: type[BaseModel], table: str | None = None,
+                 tables: bool = True) -> str:
+    """One pydantic error as ``where: [table] key = value: message``.
+
+    ``model`` is the model that was validated and ``table`` the TOML table it stands for
+    (``None``: the whole file). With ``tables`` the location is split into the innermost TOML
+    table, in brackets, and the key in it; without, the location is one dotted key.
+    """
+    loc = list(err["loc"])
+    value = err.get("input")
+    if err["type"] == RULE_ERROR:
+        loc += err["ctx"]["key"].split(".")
+        value = err["ctx"]["value"]
+    types = [model]
+    for part in loc:
+        types.append(_entry_type(types[-1], part) if types[-1] is not None else None)
+    split = max(i for i in range(len(loc)) if _is_table(types[i])) if loc and tables else 0
+    prefix = [table] if table else []
+    table_parts = prefix + [str(p) for p in loc[:split]]
+    key = ".".join(str(p) for p in (loc[split:] if tables else loc))
+    head = f"{where}: [{'.'.join(table_parts)}]" if tables and table_parts else f"{where}:"
+    kind = err["type"]
+    if not key:
+        return f"{head} {err['msg']}"
+    parent = _unwrap(types[len(loc) - 1])
+    if kind == "missing":
+        if _is_table(types[-1]):
+            return f"{where}: [{'.'.join(table_parts + [key])}]: required table is missing"
+        return f"{head} {key}: required key is missing"
+    if kind == "extra_forbidden":
+        allowed = list(parent.model_fields) if _is_model(parent) else []
+        known = f" (allowed: {', '.join(allowed)})" if allowed else ""
+        if allowed and all(_is_table(f.annotation) for f in parent.model_fields.values()):
+            return f"{head} [{key}]: unknown table{known}"
+        return f"{head} {key} = {value!r}: unknown key{known}"
+    if kind in _NOT_A_TABLE and _is_table(types[-1]):
+        return f"{head} {key} = {value!r}: must be a table"
+    message = err["msg"]
+    if kind == "value_error":  # a field validator's ValueError: its text, without the prefix
+        message = str(err["ctx"]["error"])
+    return f"{head} {key} = {value!r}: {message}"
+
+
+def validation_problems(exc: ValidationError, where: str, model: type[BaseModel],
+                        table: str | None = None, tables: bool = True) -> list[str]:
+    """One line per pydantic error (:func:`problem_line`), in pydantic's order."""
+    return [problem_line(err, where, model, table, tables) for err in exc.errors()]
 
 
 def validate_record(model: type[Record], data, where: str, table: str):
@@ -132,4 +227,4 @@ def validate_record(model: type[Record], data, where: str, table: str):
     try:
         return model.model_validate(data)
     except ValidationError as exc:
-        raise InputError(validation_problems(exc, where, table)[0]) from None
+        raise InputError(validation_problems(exc, where, model, table)[0]) from None

@@ -14,20 +14,21 @@ from importlib import resources
 from pathlib import Path
 from typing import Annotated, Literal
 
-from pydantic import Field, ValidationError, field_validator
+from pydantic import Field, ValidationError, create_model, field_validator, model_validator
 
-from cablefam.optimizer.inputs.catalog import Catalog, catalog_from_text, load_catalog
 from cablefam.optimizer.errors import InputError
-from cablefam.optimizer.inputs.materials import Positive, Record, Temperature, read_toml, validation_problems
+from cablefam.optimizer.inputs.catalog import Catalog, catalog_from_text, load_catalog
+from cablefam.optimizer.inputs.materials import (Positive, Record, Temperature, read_toml,
+                                                 rule_error, validation_problems)
 from cablefam.optimizer.model.objectives import OBJECTIVES
+from cablefam.optimizer.model.slots import MATERIAL_SLOTS
 
 Bounds = Annotated[list[float], Field(min_length=2, max_length=2)]
 #: Geometry decision variables, in the order of the decision vector.
 GEOMETRY_KEYS = ("inner_radius_m", "dielectric_radius_m", "shield_thickness_m",
                  "jacket_thickness_m")
-#: Material subsets: sweep-file key -> (design table, catalog kind)
-MATERIAL_KEYS = {"conductors": ("conductor", "conductor"), "shields": ("shield", "conductor"),
-                 "dielectrics": ("dielectric", "dielectric"), "jackets": ("jacket", "jacket")}
+#: Material subsets: sweep-file key -> (design table, catalog kind), one per material slot
+MATERIAL_KEYS = {s.sweep_key: (s.name, s.kind) for s in MATERIAL_SLOTS}
 _NAME = re.compile(r"^[A-Za-z0-9][A-Za-z0-9._-]*$")
 
 
@@ -42,7 +43,9 @@ def _check_bounds(value, allow_zero=False):
     return value
 
 
-class SearchSpec(Record):
+class _SearchFields(Record):
+    """``[search]`` without the material subsets (those come from the slot registry)."""
+
     objectives: Annotated[list[str], Field(min_length=1)]
     population: Annotated[int, Field(ge=4, le=100_000)] = 100
     generations: Annotated[int, Field(ge=1, le=1_000_000)] = 100
@@ -52,10 +55,6 @@ class SearchSpec(Record):
     jacket_thickness_m: Bounds = [0.0, 0.0]
     inner_strands: Literal[1, 7, 19, 37] = 1
     inner_diameter_series: Literal["metric", "metric-fine", "awg"] | None = None
-    conductors: list[str] | None = None
-    shields: list[str] | None = None
-    dielectrics: list[str] | None = None
-    jackets: list[str] | None = None
     evaluations_per_task: Annotated[int, Field(ge=64, le=10**10)] | None = None
     """Evaluations per member x catalog task (both stages); default: see search.budget."""
     resolution: dict[str, Annotated[float, Field(gt=0.0, allow_inf_nan=False)]] = {}
@@ -89,6 +88,22 @@ class SearchSpec(Record):
     def _jacket_bounds(cls, v):
         return _check_bounds(v, allow_zero=True)
 
+    @model_validator(mode="after")
+    def _some_b_above_a(self):
+        a_lo, b_hi = self.inner_radius_m[0], self.dielectric_radius_m[1]
+        if b_hi <= a_lo:
+            raise rule_error("dielectric_radius_m", self.dielectric_radius_m,
+                             f"upper bound must be greater than the lower bound of "
+                             f"inner_radius_m ({a_lo!r}): no design would have b > a")
+        return self
+
+
+#: ``[search]``: objectives, budget, geometry bounds and, per material slot, an optional list
+#: of the ids to try (``conductors``, ``shields``, ...; absent: every id of the slot's kind).
+SearchSpec = create_model(
+    "SearchSpec", __base__=_SearchFields, __doc__="The [search] table of a sweep file.",
+    **{s.sweep_key: (list[str] | None, None) for s in MATERIAL_SLOTS})
+
 
 _SPREAD_VARIABLES = ("inner_radius", "dielectric_radius", "eccentricity", "relative_permittivity")
 
@@ -107,6 +122,16 @@ class ToleranceSpec(Record):
     eccentricity_band_m: Annotated[float, Field(ge=0, lt=0.01)] = 0.0
     relative_permittivity_sd: Annotated[float, Field(ge=0, lt=0.5)] = 0.0
     relative_permittivity_band: Annotated[float, Field(ge=0, lt=0.5)] = 0.0
+
+    @model_validator(mode="after")
+    def _sd_or_band(self):
+        for var in _SPREAD_VARIABLES:
+            unit = "" if var == "relative_permittivity" else "_m"
+            band = getattr(self, f"{var}_band{unit}")
+            if getattr(self, f"{var}_sd{unit}") > 0 and band > 0:
+                raise rule_error(f"{var}_band{unit}", band, f"give either {var}_sd{unit} or "
+                                                            f"{var}_band{unit}, not both")
+        return self
 
     def spread(self):
         """The :class:`cablefam.optimizer.model.tolerance.Spread` these keys describe."""
@@ -161,6 +186,23 @@ class SweepFile(Record):
             raise ValueError("use letters, digits, '.', '_' and '-' only (it names a folder)")
         return v
 
+    @model_validator(mode="after")
+    def _members_and_tolerance(self):
+        """Yield requirements need a [tolerance] table; member names are unique."""
+        if self.tolerance is None:
+            for i, m in enumerate(self.member):
+                if m.min_impedance_yield is not None:
+                    raise rule_error(f"member.{i}.min_impedance_yield", m.min_impedance_yield,
+                                     f"needs a [tolerance] table (member {m.name!r})")
+            if "impedance_yield" in self.search.objectives:
+                raise rule_error("search.objectives", self.search.objectives,
+                                 "'impedance_yield' needs a [tolerance] table")
+        names = [m.name for m in self.member]
+        dup = sorted({n for n in names if names.count(n) > 1})
+        if dup:
+            raise rule_error("member.name", dup[0], "names must be unique")
+        return self
+
 
 @dataclass(frozen=True)
 class Sweep:
@@ -188,26 +230,7 @@ def parse_sweep(raw: dict, where: str, base_dir: Path, text: str = "",
     try:
         spec = SweepFile.model_validate(raw)
     except ValidationError as exc:
-        line = validation_problems(exc, where, "sweep")[0]
-        raise InputError(line.replace("[sweep] ", "")) from None
-    if spec.tolerance is not None:
-        t = spec.tolerance
-        for var in _SPREAD_VARIABLES:
-            unit = "" if var == "relative_permittivity" else "_m"
-            if getattr(t, f"{var}_sd{unit}") > 0 and getattr(t, f"{var}_band{unit}") > 0:
-                raise InputError(f"{where}: tolerance.{var}_band{unit}: give either "
-                                 f"{var}_sd{unit} or {var}_band{unit}, not both")
-    for m in spec.member:
-        if m.min_impedance_yield is not None and spec.tolerance is None:
-            raise InputError(f"{where}: member {m.name!r} min_impedance_yield = "
-                             f"{m.min_impedance_yield!r}: needs a [tolerance] table")
-    if "impedance_yield" in spec.search.objectives and spec.tolerance is None:
-        raise InputError(f"{where}: search.objectives: 'impedance_yield' needs a [tolerance] "
-                         "table")
-    names = [m.name for m in spec.member]
-    dup = sorted({n for n in names if names.count(n) > 1})
-    if dup:
-        raise InputError(f"{where}: member.name = {dup[0]!r}: names must be unique")
+        raise InputError(validation_problems(exc, where, SweepFile, tables=False)[0]) from None
     loaded = []
     for entry in spec.catalogs:
         try:
@@ -222,9 +245,10 @@ def parse_sweep(raw: dict, where: str, base_dir: Path, text: str = "",
                          "name in their [catalog] table; names must be unique")
     s = spec.search
     materials: dict[str, dict[str, tuple[str, ...]]] = {c.name: {} for c in catalogs}
-    for key, (table, kind) in MATERIAL_KEYS.items():
+    for slot in MATERIAL_SLOTS:
+        key, table, kind = slot.sweep_key, slot.name, slot.kind
         wanted = getattr(s, key)
-        if table == "jacket" and s.jacket_thickness_m[1] == 0.0:
+        if slot.optional and getattr(s, slot.thickness_key)[1] == 0.0:
             for c in catalogs:
                 materials[c.name][table] = ()
             continue

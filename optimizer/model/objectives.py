@@ -6,6 +6,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from cablefam.optimizer.model.quantities import QUANTITIES
+
 
 @dataclass(frozen=True)
 class Objective:
@@ -14,20 +16,22 @@ class Objective:
     column: str
     """Key of the evaluated quantity (a ``front.parquet`` column)."""
     maximise: bool
-    label: str
-    """Axis label with unit."""
+
+    @property
+    def label(self) -> str:
+        """Axis label with unit, from :data:`cablefam.optimizer.model.quantities.QUANTITIES`."""
+        return QUANTITIES[self.column].with_unit
 
 
 OBJECTIVES = {o.name: o for o in (
-    Objective("attenuation", "attenuation_db_per_100m", False, "attenuation [dB/100 m]"),
-    Objective("mass", "mass_kg_per_km", False, "mass [kg/km]"),
-    Objective("outer_diameter", "outer_diameter_m", False, "outer diameter [m]"),
-    Objective("cost", "cost_per_km", False, "material cost [per km]"),
-    Objective("dc_loop_resistance", "dc_loop_resistance_ohm_per_km", False,
-              "DC loop resistance [ohm/km]"),
-    Objective("max_power", "max_power_w", True, "max CW power [W]"),
-    Objective("max_peak_voltage", "max_peak_voltage_v", True, "max peak voltage [V]"),
-    Objective("impedance_yield", "impedance_yield", True, "impedance yield [-]"),
+    Objective("attenuation", "attenuation_db_per_100m", False),
+    Objective("mass", "mass_kg_per_km", False),
+    Objective("outer_diameter", "outer_diameter_m", False),
+    Objective("cost", "cost_per_km", False),
+    Objective("dc_loop_resistance", "dc_loop_resistance_ohm_per_km", False),
+    Objective("max_power", "max_power_w", True),
+    Objective("max_peak_voltage", "max_peak_voltage_v", True),
+    Objective("impedance_yield", "impedance_yield", True),
 )}
 
 

@@ -2,7 +2,7 @@
 
 A *front* is the set of rows of one (run, catalog) for one member. Per member every front is
 normalized with the ideal and nadir of the union of all compared fronts (maximised objectives
-negated first), and the hypervolume of each is computed by pymoo's indicator against one
+negated first), and the hypervolume of each is computed by moocore against one
 reference point, ``REFERENCE_FACTOR`` (1.1) in every normalized objective: 1.1 x the nadir of
 the union after normalization, so that the union's extreme points still add volume (a common
 choice, no source). Set coverage C(A, B) (Zitzler and Thiele 1999) gives the share of each

@@ -12,6 +12,7 @@ import pandas as pd
 from cablefam.optimizer.cautions import CAUTION_LINES
 from cablefam.optimizer.inputs.design_file import Design, design_arrays, load_design
 from cablefam.optimizer.model.evaluate import evaluate
+from cablefam.optimizer.model.quantities import report_groups
 from cablefam.physics import fields
 
 
@@ -62,51 +63,9 @@ _PREFIXES = {-15: "f", -12: "p", -9: "n", -6: "u", -3: "m", 0: "", 3: "k", 6: "M
 _PREFIXED_UNITS = {"ohm", "ohm/m", "H/m", "F/m", "S/m", "s/m", "Hz", "m", "V/m", "V", "W",
                    "W/m"}
 
-REPORT_LAYOUT = [
-    ("Impedance", [
-        ("z0_ohm", "|Z0| (complex, at f)", "ohm"),
-        ("z0_real_ohm", "Re Z0", "ohm"),
-        ("z0_imag_ohm", "Im Z0", "ohm"),
-        ("z0_lossless_ohm", "Z0 lossless, sqrt(L/C)", "ohm"),
-    ]),
-    ("Line parameters", [
-        ("r_ohm_per_m", "R", "ohm/m"),
-        ("l_h_per_m", "L (external + internal)", "H/m"),
-        ("g_s_per_m", "G", "S/m"),
-        ("c_f_per_m", "C", "F/m"),
-        ("dc_resistance_inner_ohm_per_m", "R dc, centre conductor (20 degC)", "ohm/m"),
-        ("dc_resistance_shield_ohm_per_m", "R dc, shield (20 degC)", "ohm/m"),
-        ("dc_loop_resistance_ohm_per_km", "DC loop resistance (20 degC)", "ohm/km"),
-    ]),
-    ("Loss and propagation", [
-        ("attenuation_db_per_100m", "Attenuation", "dB/100 m"),
-        ("conductor_attenuation_db_per_100m", "  conductor part", "dB/100 m"),
-        ("dielectric_attenuation_db_per_100m", "  dielectric part", "dB/100 m"),
-        ("velocity_factor", "Velocity factor", "-"),
-        ("delay_s_per_m", "Delay", "s/m"),
-        ("skin_depth_inner_m", "Skin depth, centre conductor", "m"),
-        ("skin_depth_shield_m", "Skin depth, shield", "m"),
-    ]),
-    ("Modes and voltage", [
-        ("te11_cutoff_hz", "TE11 cutoff (exact root)", "Hz"),
-        ("te11_cutoff_approx_hz", "TE11 cutoff, c/(pi (a+b) sqrt(eps_r))", "Hz"),
-        ("peak_e_field_v_per_m", "Peak field at centre conductor", "V/m"),
-        ("max_peak_voltage_v", "Max peak voltage (strength / safety factor)", "V"),
-    ]),
-    ("Heat and power (IEC 60287 method, free air)", [
-        ("heat_w_per_m", "Heat generated", "W/m"),
-        ("conductor_temperature_c", "Centre-conductor temperature", "degC"),
-        ("shield_temperature_c", "Shield temperature", "degC"),
-        ("surface_temperature_c", "Surface temperature", "degC"),
-        ("temperature_rise_k", "Conductor temperature rise", "K"),
-        ("max_power_w", "Max CW power (temperature limits)", "W"),
-    ]),
-    ("Size, mass, cost", [
-        ("outer_diameter_m", "Outer diameter", "m"),
-        ("mass_kg_per_km", "Mass", "kg/km"),
-        ("cost_per_km", "Material cost", "per km"),
-    ]),
-]
+#: Sections of the report: (title, [(key, label, unit), ...]), from the quantity registry.
+REPORT_LAYOUT = [(title, [(q.key, q.report_label, q.unit) for q in quantities])
+                 for title, quantities in report_groups()]
 
 
 def engineering(value: float, unit: str) -> str:

@@ -29,13 +29,14 @@ import pandas as pd
 
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix, resolutions
-from cablefam.optimizer.run_folder.reader import read_front
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS
-from cablefam.optimizer.review.text_table import format_table
+from cablefam.optimizer.model.quantities import display
+from cablefam.optimizer.model.slots import SLOT_NAMES
 from cablefam.optimizer.review import tradeoff
+from cablefam.optimizer.review.text_table import format_table
+from cablefam.optimizer.run_folder.reader import read_front
 
 METHODS = ("knee", "weights", "nearest")
-MATERIAL_COLUMNS = ("conductor", "shield", "dielectric", "jacket")
 #: Column of a design's position among its member's rows of front.parquet (file order): the
 #: ``--index`` of ``cablefam design``.
 INDEX_COLUMN = "index"
@@ -256,7 +257,7 @@ def _json_value(v):
 
 def picks_to_json(result: PickResult) -> dict:
     """The ``--json`` object: method, objectives and one object per pick (SI, units in keys)."""
-    cols = (["rank", "member", "catalog", INDEX_COLUMN, *MATERIAL_COLUMNS, *GEOMETRY_KEYS]
+    cols = (["rank", "member", "catalog", INDEX_COLUMN, *SLOT_NAMES, *GEOMETRY_KEYS]
             + _key_columns(result.objectives) + list(YIELD_COLUMNS) + ["score"]
             + [f"pseudo_weight_{o}" for o in result.objectives])
     picks = []
@@ -280,13 +281,11 @@ def picks_to_json(result: PickResult) -> dict:
 def format_picks(result: PickResult) -> str:
     """The table of ``cablefam pick``: key columns with units, one block per member."""
     obj_cols = _key_columns(result.objectives)
-    labels = {OBJECTIVES[o].column: OBJECTIVES[o].label for o in result.objectives}
-    labels.setdefault("z0_ohm", "|Z0| [ohm]")
-    labels["outer_diameter_m"] = "outer diameter [mm]"
+    shown = {c: display(c) for c in obj_cols}   # (factor, label with the shown unit)
     with_yield = "impedance_yield" in result.picks.columns and bool(
         result.picks["impedance_yield"].notna().any())
-    headers = (["rank", "catalog", "index", "conductor", "dielectric", "shield", "jacket",
-                "a [mm]", "b [mm]"] + [labels[c] for c in obj_cols]
+    headers = (["rank", "catalog", "index", *SLOT_NAMES, "a [mm]", "b [mm]"]
+               + [shown[c][1] for c in obj_cols]
                + (["yield", "Z0 3-sigma [ohm]"] if with_yield else []) + ["score"])
     lines = [f"cablefam pick: {result.run_dir}, method {result.method} "
              f"({SCORE_MEANING[result.method]})"]
@@ -302,11 +301,10 @@ def format_picks(result: PickResult) -> str:
             continue
         rows = []
         for _, r in sub.iterrows():
-            rows.append([int(r["rank"]), r["catalog"], int(r[INDEX_COLUMN]), r["conductor"],
-                         r["dielectric"], r["shield"], r["jacket"] or "-",
-                         1e3 * float(r["inner_radius_m"]), 1e3 * float(r["dielectric_radius_m"])]
-                        + [1e3 * float(r[c]) if c == "outer_diameter_m" else float(r[c])
-                           for c in obj_cols]
+            rows.append([int(r["rank"]), r["catalog"], int(r[INDEX_COLUMN])]
+                        + [r[t] or "-" for t in SLOT_NAMES]
+                        + [1e3 * float(r["inner_radius_m"]), 1e3 * float(r["dielectric_radius_m"])]
+                        + [shown[c][0] * float(r[c]) for c in obj_cols]
                         + ([f"{float(r['impedance_yield']):.4f}",
                             f"{float(r['z0_3sigma_low_ohm']):.4g}-"
                             f"{float(r['z0_3sigma_high_ohm']):.4g}"] if with_yield else [])

@@ -21,14 +21,18 @@ import pandas as pd
 
 from cablefam.optimizer.atomic import write_text_atomic
 from cablefam.optimizer.cautions import CAUTION_LINES
-from cablefam.optimizer.review.design_export import front_row_design_toml
-from cablefam.optimizer.inputs.design_file import Design, design_arrays, parse_design
 from cablefam.optimizer.errors import InputError
+from cablefam.optimizer.inputs.design_file import Design, design_arrays, parse_design
 from cablefam.optimizer.model.evaluate import Designs, evaluate
-from cablefam.optimizer.review.inspection import REPORT_LAYOUT, Inspection, engineering, inspect_loaded, \
-    profile_table
 from cablefam.optimizer.model.objectives import OBJECTIVES
-from cablefam.optimizer.review import plots
+from cablefam.optimizer.model.quantities import QUANTITIES
+from cablefam.optimizer.model.slots import SLOTS
+from cablefam.optimizer.review.design_export import front_row_design_toml
+from cablefam.optimizer.review.figure_style import safe_name, save_figure
+from cablefam.optimizer.review.inspection import (REPORT_LAYOUT, Inspection, engineering,
+                                                  inspect_loaded, profile_table)
+from cablefam.optimizer.review.sheet_figures import (cross_section_figure, frequency_figure,
+                                                     front_position_figure, profile_figure)
 
 #: Points of the frequency sweep on a sheet.
 FREQUENCY_POINTS = 40
@@ -193,21 +197,22 @@ def _quantity_rows(values: dict[str, float]) -> list[Table | Heading]:
     if rest:
         blocks.append(Heading(3, "Other"))
         blocks.append(Table(("quantity", "value", "key"), tuple(
-            (k, ("yes" if values[k] else "no") if k == "thermal_converged"
+            (QUANTITIES[k].label if k in QUANTITIES else k,
+             ("yes" if values[k] else "no") if k == "thermal_converged"
              else f"{values[k]:.6g}", k) for k in rest)))
     return blocks
 
 
 def _material_rows(design: Design, ids: dict[str, str]) -> Table:
     rows = []
-    for table in ("conductor", "shield", "dielectric", "jacket"):
+    for table, slot in SLOTS.items():
         record = getattr(design, table)
         if record is None:
             continue
         data = record.model_dump(exclude_none=True)
         props = ", ".join(f"{k} = {v:.6g}" for k, v in data.items()
                           if isinstance(v, (int, float)))
-        rows.append((table, ids.get(table) or "-", data.get("name", "-"), props,
+        rows.append((slot.label, ids.get(table) or "-", data.get("name", "-"), props,
                      data.get("source", "not given")))
     return Table(("layer", "id", "material", "properties (SI, units in names)", "source"),
                  tuple(rows))
@@ -240,8 +245,8 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
     c = b + g.shield_thickness_m
     d = c + g.jacket_thickness_m
     offset = float(getattr(g, "eccentricity_m", 0.0) or 0.0)
-    stem = plots.safe_name(f"{member}-{catalog}-{index}")
-    ids = {t: row.get(t) for t in ("conductor", "shield", "dielectric", "jacket")}
+    stem = safe_name(f"{member}-{catalog}-{index}")
+    ids = {t: row.get(t) for t in SLOTS}
     names = {t: f"{ids[t]}" for t in ids if ids[t]}
 
     profile = profile_table(result)
@@ -260,19 +265,19 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
     paths: list[Path] = []
     images = {}
     figures = {
-        "section": (plots.cross_section_figure(a, b, c, d, names, offset),
+        "section": (cross_section_figure(a, b, c, d, names, offset),
                     "cross-section to scale"),
-        "profiles": (plots.profile_figure(profile, a, b, c, d, note),
+        "profiles": (profile_figure(profile, a, b, c, d, note),
                      "B(r), |J(r)| and E(r) at the operating point"),
-        "frequency": (plots.frequency_figure(freq, o.frequency_hz, values.get("te11_cutoff_hz"),
-                                             o.power_w),
+        "frequency": (frequency_figure(freq, o.frequency_hz, values.get("te11_cutoff_hz"),
+                                       o.power_w),
                       "attenuation and power handling versus frequency"),
-        "front": (plots.front_position_figure(
+        "front": (front_position_figure(
             member_front, row, objectives, f"{member}: this design on the member's front"),
             "position on the member's front"),
     }
     for key, (fig, alt) in figures.items():
-        written = plots.save_figure(fig, out_dir / f"{stem}-{key}", formats=("png",))
+        written = save_figure(fig, out_dir / f"{stem}-{key}", formats=("png",))
         paths += written
         images[key] = Image(written[0].name, alt)
 

@@ -7,7 +7,9 @@ does). They are written here rather than taken from ``pymoo.mcdm`` because, in p
 warning in the process from then on) and ``CompromiseProgramming._do`` returns ``None`` (a
 stub). ``PseudoWeights`` computes Deb's pseudo-weights correctly but divides by zero on a
 degenerate range; :func:`pseudo_weights` below is the same formula with that case handled.
-The hypervolume itself is pymoo's indicator (:func:`hypervolume`).
+Dominance and the hypervolume are moocore's (:func:`nondominated_mask`, :func:`hypervolume`),
+the library pymoo itself delegates them to; it is imported inside those two functions, and
+nothing here imports pymoo.
 """
 
 from __future__ import annotations
@@ -44,13 +46,15 @@ def normalize(f, ideal, nadir) -> np.ndarray:
 def nondominated_mask(f) -> np.ndarray:
     """True for points that no other point Pareto-dominates (no worse everywhere, better once).
 
-    Duplicates do not dominate each other, so equal points are all kept.
+    Duplicates do not dominate each other, so equal points are all kept
+    (``moocore.is_nondominated`` with ``keep_weakly=True``).
     """
+    import moocore
+
     f = _as_matrix(f)
-    le = np.all(f[:, None, :] <= f[None, :, :], axis=2)   # le[i, j]: i no worse than j
-    lt = np.any(f[:, None, :] < f[None, :, :], axis=2)
-    dominated = np.any(le & lt, axis=0)
-    return ~dominated
+    if len(f) == 0:
+        return np.zeros(0, dtype=bool)
+    return np.asarray(moocore.is_nondominated(f, keep_weakly=True), dtype=bool)
 
 
 def knee_distances(f) -> np.ndarray:
@@ -188,18 +192,18 @@ def coverage(a, b) -> float | None:
 
 
 def hypervolume(f_normalized, reference) -> float:
-    """Hypervolume of normalized points against ``reference``, by pymoo's indicator.
+    """Hypervolume of normalized points against ``reference`` (``moocore.hypervolume``).
 
-    Thin wrapper over :class:`pymoo.indicators.hv.HV` (which does not rescale unless asked):
-    the caller normalizes every compared front with the same ideal and nadir and passes one
-    reference point. An empty set has hypervolume 0; points beyond the reference add nothing.
+    No rescaling: the caller normalizes every compared front with the same ideal and nadir
+    and passes one reference point. An empty set has hypervolume 0; points beyond the
+    reference add nothing.
     """
-    from pymoo.indicators.hv import HV
+    import moocore
 
     f = np.asarray(f_normalized, dtype=float)
     if f.size == 0:
         return 0.0
-    return float(HV(ref_point=np.asarray(reference, dtype=float))(_as_matrix(f)))
+    return float(moocore.hypervolume(_as_matrix(f), ref=np.asarray(reference, dtype=float)))
 
 
 def distinct_first(f, order, resolution, n: int) -> np.ndarray:

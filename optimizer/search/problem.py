@@ -24,6 +24,7 @@ from cablefam.optimizer.search.archive import pareto_rank
 from cablefam.optimizer.search.impedance_target import (dielectric_radius_lossless,
                                                         solve_dielectric_radius, target_impedance)
 from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix
+from cablefam.optimizer.model.slots import SLOT_KINDS, SLOT_NAMES
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS, MemberSpec, Sweep
 from cablefam.optimizer.model.tolerance import (common_draws, impedance_yield_analytic,
                                  impedance_yield_monte_carlo)
@@ -31,7 +32,6 @@ from cablefam.optimizer.inputs.wire_size_table import standard_diameters
 from cablefam.physics.stranding import stranded_effective_radius
 from cablefam.physics.wire_sizes import snap_to_sizes
 
-MATERIAL_TABLES = ("conductor", "shield", "dielectric", "jacket")
 #: Name of the decision variable that replaces the dielectric radius (see the module docstring).
 IMPEDANCE_OFFSET = "impedance_offset"
 #: Seed of the Monte Carlo draws of the impedance yield (the same for every task and run seed).
@@ -40,9 +40,6 @@ YIELD_DRAW_SEED = 0x7013
 YIELD_BLOCK = 256
 #: Impedance-yield margin of a design whose yield the search did not compute (a tiny violation).
 UNKNOWN_YIELD_MARGIN = -1.0e-6
-_CATALOG_KIND = {"conductor": "conductor", "shield": "conductor", "dielectric": "dielectric",
-                 "jacket": "jacket"}
-
 
 @dataclass(frozen=True)
 class Layout:
@@ -103,7 +100,7 @@ class Layout:
             geometry["inner_radius_m"] = 0.5 * snap_to_sizes(2.0 * geometry["inner_radius_m"],
                                                              2.0 * self.inner_radius_sizes)
         indices = {}
-        for table in MATERIAL_TABLES:
+        for table in SLOT_NAMES:
             if table in self.free_materials:
                 k = len(self.material_ids[table])
                 indices[table] = np.clip(np.floor(x[:, col] + 0.5), 0, k - 1).astype(int)
@@ -118,7 +115,7 @@ def make_layout(sweep: Sweep, catalog_name: str) -> Layout:
     bounds = {k: tuple(getattr(s, k)) for k in GEOMETRY_KEYS}
     free_geometry = tuple(k for k in GEOMETRY_KEYS if bounds[k][1] > bounds[k][0])
     ids = sweep.materials[catalog_name]
-    free_materials = tuple(t for t in MATERIAL_TABLES if len(ids.get(t, ())) > 1)
+    free_materials = tuple(t for t in SLOT_NAMES if len(ids.get(t, ())) > 1)
     sizes = None
     if s.inner_diameter_series is not None:
         radii = 0.5 * standard_diameters(s.inner_diameter_series)
@@ -154,7 +151,7 @@ class MemberProblem(Problem):
         self.member = member
         self.catalog = next(c for c in sweep.catalogs if c.name == catalog_name)
         self.layout = make_layout(sweep, catalog_name)
-        self._tables = {t: self._property_table(t) for t in MATERIAL_TABLES}
+        self._tables = {t: self._property_table(t) for t in SLOT_NAMES}
         if self.layout.impedance_construction:
             self.layout = replace(self.layout, bounds={
                 **self.layout.bounds, "inner_radius_m": self._reachable_inner_radii()})
@@ -202,7 +199,7 @@ class MemberProblem(Problem):
         ids = self.layout.material_ids.get(table, ())
         if not ids:
             return None
-        records = [self.catalog.get(_CATALOG_KIND[table], i, table) for i in ids]
+        records = [self.catalog.get(SLOT_KINDS[table], i, table) for i in ids]
         keys = [k for k, v in records[0].model_dump().items() if isinstance(v, (int, float))
                 and not isinstance(v, bool)]
         return {k: np.array([getattr(r, k) for r in records], dtype=float) for k in keys}

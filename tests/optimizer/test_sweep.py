@@ -390,6 +390,24 @@ BAD_SWEEPS = {
     "catalog-with-bad-value": (
         _edit(str(CATALOG_DIR / "baseline.toml"), "bad-value-catalog.toml"),
         ["bad-value-catalog.toml", "[dielectric.solid-pe] loss_tangent = 1.0"]),
+    "b-never-above-a": (
+        _edit("dielectric_radius_m = [0.6e-3, 9.0e-3]", "dielectric_radius_m = [0.1e-3, 0.2e-3]"),
+        ["search.dielectric_radius_m = [0.0001, 0.0002]", "inner_radius_m (0.0002)", "b > a"]),
+    "sd-and-band": (
+        _edit("[[member]]", "[tolerance]\ninner_radius_sd_m = 5e-6\ninner_radius_band_m = 1e-5\n"
+                            "\n[[member]]"),
+        ["tolerance.inner_radius_band_m = 1e-05", "inner_radius_sd_m", "not both"]),
+    "yield-objective-without-tolerance": (
+        _edit('objectives = ["attenuation", "mass"]',
+              'objectives = ["attenuation", "impedance_yield"]'),
+        ["search.objectives = ['attenuation', 'impedance_yield']", "[tolerance]"]),
+    "yield-requirement-without-tolerance": (
+        _edit("frequency_hz = 1e9", "frequency_hz = 1e9\nmin_impedance_yield = 0.99"),
+        ["member.0.min_impedance_yield = 0.99", "[tolerance]", "'feeder-50'"]),
+    "member-not-a-table": (
+        _edit('catalogs = [', 'member = 3\ncatalogs = [',
+              BAD_SWEEP_BASE[:BAD_SWEEP_BASE.index("[[member]]")]),
+        ["member = 3", "valid list"]),
 }
 
 

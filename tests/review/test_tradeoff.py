@@ -84,14 +84,53 @@ def test_hypervolume_of_hand_checkable_front():
     z = np.array([[0.0, 1.0], [0.5, 0.5], [1.0, 0.0]])
     ref = np.array([1.1, 1.1])
     assert tradeoff.hypervolume(z, ref) == pytest.approx(0.46, rel=1e-12)
-    # Source: pymoo's indicator called directly (reference library).
+    # Source: pymoo's indicator called directly (reference library, formerly used here).
     assert tradeoff.hypervolume(z, ref) == pytest.approx(HV(ref_point=ref)(z), rel=1e-12)
     assert tradeoff.hypervolume(np.empty((0, 2)), ref) == 0.0
+
+
+def test_hypervolume_of_a_staircase_is_the_closed_form():
+    # identity/hand computation: n + 1 points (i/n, 1 - i/n) on x + y = 1 against (1, 1);
+    # sorted by x, point i owns the slab of width 1/n and height 1 - (1 - i/n) = i/n, so the
+    # hypervolume is sum_{i<n} (1/n)(i/n) = (n - 1)/(2n); the last point, (1, 0), adds nothing.
+    for n in (1, 2, 7, 100):
+        x = np.arange(n + 1) / n
+        z = np.column_stack([x, 1.0 - x])
+        assert tradeoff.hypervolume(z, [1.0, 1.0]) == pytest.approx((n - 1) / (2 * n),
+                                                                    abs=1e-15)
+        # shuffled order and a point beyond the reference change nothing
+        shuffled = np.vstack([z[::-1], [[1.5, 0.2]]])
+        assert tradeoff.hypervolume(shuffled, [1.0, 1.0]) == pytest.approx((n - 1) / (2 * n),
+                                                                           abs=1e-15)
+
+
+def test_hypervolume_equals_pymoo_in_three_objectives():
+    # Source: pymoo's indicator (the reference library, formerly used here) on the same set.
+    rng = np.random.default_rng(5)
+    z = rng.uniform(0.0, 1.0, (60, 3))
+    ref = np.full(3, 1.1)
+    assert tradeoff.hypervolume(z, ref) == pytest.approx(HV(ref_point=ref)(z), rel=1e-12)
+
+
+def _nondominated_by_pairs(f):
+    """The hand-written O(n^2) filter this module used before moocore (the reference)."""
+    le = np.all(f[:, None, :] <= f[None, :, :], axis=2)   # le[i, j]: i no worse than j
+    lt = np.any(f[:, None, :] < f[None, :, :], axis=2)
+    return ~np.any(le & lt, axis=0)
 
 
 def test_nondominated_mask_keeps_equal_points():
     f = np.array([[1.0, 1.0], [1.0, 1.0], [2.0, 2.0], [0.0, 3.0]])
     assert tradeoff.nondominated_mask(f).tolist() == [True, True, False, True]
+    assert tradeoff.nondominated_mask(np.empty((0, 2))).tolist() == []
+
+
+@pytest.mark.parametrize("k", [1, 2, 3, 4])
+def test_nondominated_mask_equals_the_pairwise_filter(k):
+    # small integers: many ties and duplicates, where weak and strict dominance differ
+    rng = np.random.default_rng(k)
+    f = rng.integers(0, 6, (300, k)).astype(float)
+    assert np.array_equal(tradeoff.nondominated_mask(f), _nondominated_by_pairs(f))
 
 
 def test_functions_leave_warning_filters_alone():
