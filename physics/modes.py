@@ -6,9 +6,10 @@ from functools import lru_cache
 
 import numpy as np
 from scipy import special
-from scipy.constants import speed_of_light
 from scipy.interpolate import CubicSpline
 from scipy.optimize import elementwise
+
+from cablefam.physics.constants import speed_of_light
 
 
 def _j1p(x):
