@@ -10,12 +10,12 @@ from __future__ import annotations
 from typing import NamedTuple
 
 import numpy as np
-from scipy.constants import epsilon_0, mu_0, speed_of_light
 
-from cablefam.physics.eccentricity import geometry_factor, wheeler_loss_factors
-from cablefam.physics.internal_impedance import tube_internal_impedance, wire_internal_impedance
-from cablefam.physics.stranding import (stranded_dc_resistance, stranded_effective_radius,
-                               stranded_skin_effect_factor)
+from cablefam.physics import eccentricity
+from cablefam.physics.constants import FREE_SPACE_IMPEDANCE, epsilon_0, mu_0, speed_of_light
+from cablefam.physics.internal_impedance import (tube_resistance_reactance, wire_dc_resistance,
+                                                 wire_resistance_reactance)
+from cablefam.physics.stranding import stranded_effective_radius, strand_layup
 
 
 class LineParameters(NamedTuple):
@@ -35,7 +35,57 @@ class LineParameters(NamedTuple):
     """Resistance of the shield alone [ohm m^-1]."""
 
 
-def capacitance(a, b, relative_permittivity, offset=0.0):
+class LineFixedParts(NamedTuple):
+    """Parts of the line parameters that do not depend on the conductor resistivities.
+
+    They do not change with the conductor temperatures, so a thermal iteration computes them
+    once (:func:`line_fixed_parts`) and only the internal impedances per pass
+    (:func:`conductor_impedances`). A factor is ``None`` where it is 1 for every design.
+    """
+
+    geometry_factor: np.ndarray
+    r""":math:`\Lambda` of the (effective) centre-conductor radius and :math:`b` [-]."""
+    l_external: np.ndarray
+    """External inductance [H m^-1]."""
+    c: np.ndarray
+    """Capacitance [F m^-1]."""
+    g: np.ndarray
+    """Shunt conductance [S m^-1]."""
+    inner_loss_factor: np.ndarray | None
+    """Wheeler factor of the centre conductor (offset line) [-]; None: concentric."""
+    shield_loss_factor: np.ndarray | None
+    """Wheeler factor of the shield (offset line) [-]; None: concentric."""
+    inner_skin_effect_factor: np.ndarray | None
+    """Skin-effect factor of a stranded centre conductor [-]; None: solid."""
+    inner_dc_resistance_factor: np.ndarray | None
+    """DC resistance of the strands over that of a solid wire of the overall radius [-];
+    None: solid."""
+
+
+def impedance_per_geometry_factor(relative_permittivity):
+    r"""Lossless characteristic impedance per unit of :math:`\Lambda`, :math:`K` [ohm].
+
+    .. math:: K = \frac{\eta_0}{2\pi\sqrt{\varepsilon_r}}, \qquad Z_0 = K\Lambda
+
+    with :math:`\eta_0 = \mu_0 c_0` (:data:`cablefam.physics.constants.FREE_SPACE_IMPEDANCE`)
+    and :math:`\Lambda = \ln(b/a)` or its eccentric form (Table 2.1 of [1]_).
+
+    References
+    ----------
+    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
+    """
+    return FREE_SPACE_IMPEDANCE / (2.0 * np.pi * np.sqrt(
+        np.asarray(relative_permittivity, dtype=float)))
+
+
+def _lambda(a, b, offset, geometry_factor):
+    """The caller's geometry factor, or :func:`cablefam.physics.eccentricity.geometry_factor`."""
+    if geometry_factor is None:
+        return eccentricity.geometry_factor(a, b, offset)
+    return np.asarray(geometry_factor, dtype=float)
+
+
+def capacitance(a, b, relative_permittivity, offset=0.0, geometry_factor=None):
     r"""Capacitance per unit length, :math:`C = 2\pi\varepsilon_0\varepsilon_r/\ln(b/a)` [F m^-1].
 
     Parameters
@@ -47,26 +97,30 @@ def capacitance(a, b, relative_permittivity, offset=0.0):
     offset : array_like, optional
         Eccentricity of the centre conductor [m]; :math:`\ln(b/a)` becomes the arccosh form
         of :func:`cablefam.physics.eccentricity.geometry_factor`.
+    geometry_factor : array_like, optional
+        :math:`\Lambda` of ``a, b, offset`` when the caller has it already [-] (then ``a``,
+        ``b`` and ``offset`` are not used).
 
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012, Table 2.1.
     """
     return 2.0 * np.pi * epsilon_0 * np.asarray(relative_permittivity, dtype=float) / (
-        geometry_factor(a, b, offset))
+        _lambda(a, b, offset, geometry_factor))
 
 
-def inductance_external(a, b, offset=0.0):
+def inductance_external(a, b, offset=0.0, geometry_factor=None):
     r"""External inductance per unit length, :math:`L_e = \mu_0 \ln(b/a) / (2\pi)` [H m^-1].
 
     With an ``offset`` [m] of the centre conductor, :math:`\ln(b/a)` becomes the arccosh form
-    of :func:`cablefam.physics.eccentricity.geometry_factor`.
+    of :func:`cablefam.physics.eccentricity.geometry_factor`; ``geometry_factor`` as in
+    :func:`capacitance`.
 
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012, Table 2.1.
     """
-    return mu_0 / (2.0 * np.pi) * geometry_factor(a, b, offset)
+    return mu_0 / (2.0 * np.pi) * _lambda(a, b, offset, geometry_factor)
 
 
 def conductance(capacitance_f_per_m, frequency, loss_tangent):
@@ -80,10 +134,90 @@ def conductance(capacitance_f_per_m, frequency, loss_tangent):
         loss_tangent, dtype=float)
 
 
+def line_fixed_parts(a, b, frequency, relative_permittivity, loss_tangent, offset=0.0,
+                     inner_strands=1, geometry_factor=None):
+    r"""The parts of :func:`line_parameters` that do not depend on the resistivities.
+
+    Parameters
+    ----------
+    a, b, frequency, relative_permittivity, loss_tangent, offset, inner_strands
+        As in :func:`line_parameters`.
+    geometry_factor : array_like, optional
+        :math:`\Lambda` of the effective centre-conductor radius (stranded: that of
+        :func:`cablefam.physics.stranding.stranded_effective_radius`), ``b`` and ``offset``,
+        when the caller has it already [-].
+
+    Returns
+    -------
+    LineFixedParts
+        :math:`\Lambda`, :math:`L_e`, :math:`C`, :math:`G` and the conductor factors (see
+        :func:`line_parameters` for the formulas).
+    """
+    a_ext = a
+    skin_factor = dc_factor = None
+    if np.any(np.asarray(inner_strands) != 1):
+        a_ext = stranded_effective_radius(a, inner_strands)
+        layup = strand_layup(inner_strands)
+        skin_factor, dc_factor = layup.skin_effect_factor, layup.dc_resistance_factor
+    lam = _lambda(a_ext, b, offset, geometry_factor)
+    f_inner = f_shield = None
+    if np.any(offset):
+        f_inner, f_shield = eccentricity.wheeler_loss_factors(a_ext, b, offset)
+    cap = capacitance(a_ext, b, relative_permittivity, geometry_factor=lam)
+    return LineFixedParts(
+        geometry_factor=lam, l_external=inductance_external(a_ext, b, geometry_factor=lam),
+        c=cap, g=conductance(cap, frequency, loss_tangent), inner_loss_factor=f_inner,
+        shield_loss_factor=f_shield, inner_skin_effect_factor=skin_factor,
+        inner_dc_resistance_factor=dc_factor)
+
+
+class ConductorImpedances(NamedTuple):
+    """Internal resistance and reactance of each conductor [ohm m^-1]; arrays of one shape."""
+
+    r_inner: np.ndarray
+    x_inner: np.ndarray
+    r_shield: np.ndarray
+    x_shield: np.ndarray
+
+
+def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity,
+                         fixed: LineFixedParts, inner_relative_permeability=1.0,
+                         shield_relative_permeability=1.0, method="auto"):
+    r"""Internal impedances of the centre conductor and of the shield in the line.
+
+    Parameters
+    ----------
+    a, b, c, frequency, inner_resistivity, shield_resistivity : array_like
+        As in :func:`line_parameters` [m], [Hz], [ohm m].
+    fixed : LineFixedParts
+        From :func:`line_fixed_parts` for the same designs (its conductor factors are used).
+    inner_relative_permeability, shield_relative_permeability, method : optional
+        As in :func:`line_parameters`.
+
+    Returns
+    -------
+    ConductorImpedances
+        :math:`R` and :math:`X_i` of each conductor [ohm m^-1] (real arrays), with the
+        stranding and offset factors of :func:`line_parameters` applied.
+    """
+    r_i, x_i = wire_resistance_reactance(a, inner_resistivity, frequency,
+                                         inner_relative_permeability, method=method)
+    r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
+                                         shield_relative_permeability, method=method)
+    if fixed.inner_skin_effect_factor is not None:
+        r_dc = wire_dc_resistance(a, inner_resistivity) * fixed.inner_dc_resistance_factor
+        r_i = np.maximum(r_i * fixed.inner_skin_effect_factor, r_dc)
+        x_i = x_i * fixed.inner_skin_effect_factor
+    if fixed.inner_loss_factor is not None:
+        r_i, x_i = r_i * fixed.inner_loss_factor, x_i * fixed.inner_loss_factor
+        r_s, x_s = r_s * fixed.shield_loss_factor, x_s * fixed.shield_loss_factor
+    return ConductorImpedances(r_i, x_i, r_s, x_s)
+
+
 def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                     relative_permittivity, loss_tangent, inner_relative_permeability=1.0,
                     shield_relative_permeability=1.0, method="auto", offset=0.0,
-                    inner_strands=1):
+                    inner_strands=1, geometry_factor=None):
     r"""R, L, G, C of a coax at frequency :math:`f`, with exact conductor internal impedance.
 
     Parameters
@@ -110,6 +244,9 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
         :func:`cablefam.physics.stranding.stranded_effective_radius`; the internal impedance is that of
         a solid wire of the overall radius times the stranding skin-effect factor, its
         resistance never below the DC resistance of the strands.
+    geometry_factor : array_like, optional
+        :math:`\Lambda` of the effective centre-conductor radius, ``b`` and ``offset`` when
+        the caller has it already [-] (computed here otherwise).
 
     Returns
     -------
@@ -123,7 +260,8 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                         + j\omega\frac{\mu_0}{2\pi}\ln\frac{b}{a}, \qquad
         G + j\omega C = (\tan\delta + j)\,\omega\frac{2\pi\varepsilon_0\varepsilon_r}{\ln(b/a)}
 
-    (Sec. IV of [1]_).
+    (Sec. IV of [1]_). The resistivity-free parts come from :func:`line_fixed_parts`, the
+    internal impedances from :func:`conductor_impedances`.
 
     References
     ----------
@@ -134,27 +272,13 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
          a, b, c, frequency, inner_resistivity, shield_resistivity, relative_permittivity,
          loss_tangent)))
     omega = 2.0 * np.pi * frequency
-    z_inner = wire_internal_impedance(a, inner_resistivity, frequency,
-                                      inner_relative_permeability, method=method)
-    z_shield = tube_internal_impedance(b, c, shield_resistivity, frequency,
-                                       shield_relative_permeability, method=method)
-    a_ext = a
-    if np.any(np.asarray(inner_strands) != 1):
-        a_ext = stranded_effective_radius(a, inner_strands)
-        r_dc = stranded_dc_resistance(a, inner_strands, inner_resistivity)
-        z_inner = z_inner * stranded_skin_effect_factor(inner_strands)
-        z_inner = np.maximum(z_inner.real, r_dc) + 1j * z_inner.imag
-    if np.any(offset):
-        f_inner, f_shield = wheeler_loss_factors(a_ext, b, offset)
-        z_inner = z_inner * f_inner
-        z_shield = z_shield * f_shield
-    cap = capacitance(a_ext, b, relative_permittivity, offset)
-    r_inner = z_inner.real
-    r_shield = z_shield.real
-    ind = inductance_external(a_ext, b, offset) + (z_inner.imag + z_shield.imag) / omega
-    g = conductance(cap, frequency, loss_tangent)
-    return LineParameters(r=r_inner + r_shield, l=ind, g=g, c=cap,
-                          r_inner=r_inner, r_shield=r_shield)
+    fixed = line_fixed_parts(a, b, frequency, relative_permittivity, loss_tangent, offset,
+                             inner_strands, geometry_factor)
+    z = conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity, fixed,
+                             inner_relative_permeability, shield_relative_permeability, method)
+    ind = fixed.l_external + (z.x_inner + z.x_shield) / omega
+    return LineParameters(r=z.r_inner + z.r_shield, l=ind, g=fixed.g, c=fixed.c,
+                          r_inner=z.r_inner, r_shield=z.r_shield)
 
 
 def propagation_constant(r, l, g, c, frequency):  # noqa: E741
@@ -185,16 +309,39 @@ def characteristic_impedance(r, l, g, c, frequency):  # noqa: E741
     return propagation_constant(r, l, g, c, frequency) / (g + 1j * omega * c)
 
 
-def characteristic_impedance_lossless(a, b, relative_permittivity, offset=0.0):
+def characteristic_impedance_modulus(r, l, g, c, frequency):  # noqa: E741
+    r"""Modulus of the characteristic impedance, :math:`|Z_0|` [ohm], in real arithmetic.
+
+    .. math:: |Z_0| = \sqrt{\frac{|R + j\omega L|}{|G + j\omega C|}}
+              = \left(\frac{R^2 + \omega^2L^2}{G^2 + \omega^2C^2}\right)^{1/4}
+
+    the modulus of :func:`characteristic_impedance` (Eq. (2.7) of [1]_) without complex
+    square roots; equal to it to rounding (per-unit-length parameters of real lines are far
+    from over- or underflow when squared).
+
+    References
+    ----------
+    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
+    """
+    omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
+    x = omega * l
+    b = omega * c
+    return np.sqrt(np.sqrt((r * r + x * x) / (g * g + b * b)))
+
+
+def characteristic_impedance_lossless(a, b, relative_permittivity, offset=0.0,
+                                      geometry_factor=None):
     r"""Lossless characteristic impedance :math:`\sqrt{L_e/C} = \eta_0\ln(b/a)/(2\pi\sqrt{\varepsilon_r})` [ohm].
+
+    :math:`K\Lambda` with :math:`K` of :func:`impedance_per_geometry_factor`; ``offset`` and
+    ``geometry_factor`` as in :func:`capacitance`.
 
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012, Table 2.1.
     """
-    eta_0 = mu_0 * speed_of_light
-    return eta_0 / (2.0 * np.pi * np.sqrt(np.asarray(relative_permittivity, dtype=float))) * (
-        geometry_factor(a, b, offset))
+    return impedance_per_geometry_factor(relative_permittivity) * _lambda(a, b, offset,
+                                                                          geometry_factor)
 
 
 def attenuation_split(alpha, r, g, z0_lossless):

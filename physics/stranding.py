@@ -77,6 +77,8 @@ from typing import NamedTuple
 
 import numpy as np
 
+from cablefam.physics.internal_impedance import wire_dc_resistance
+
 #: Strand counts of the supported concentric lay-ups, index = number of layers k.
 LAYUPS = (1, 7, 19, 37)
 
@@ -275,8 +277,7 @@ def stranded_dc_resistance(overall_radius, n_strands, resistivity, lay_ratio=DEF
         For a strand count not in :data:`LAYUPS` or ``lay_ratio <= 0``.
     """
     factor = strand_layup(n_strands, lay_ratio).dc_resistance_factor
-    a = np.asarray(overall_radius, dtype=float)
-    return np.asarray(resistivity, dtype=float) / (np.pi * a * a) * factor
+    return wire_dc_resistance(overall_radius, resistivity) * factor
 
 
 def stranded_skin_effect_factor(n_strands, lay_ratio=DEFAULT_LAY_RATIO):
