@@ -14,7 +14,6 @@ import numpy as np
 from pymoo.core.problem import Problem
 from pymoo.core.repair import Repair
 from pymoo.core.sampling import Sampling
-from scipy.constants import mu_0, speed_of_light
 
 from cablefam.optimizer.model.constraints import (CONSTRAINTS, MIN_RADIUS_RATIO, NON_FINITE_MARGIN,
                                    constraint_margins)
@@ -24,6 +23,7 @@ from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS, MemberSpec, Swee
 from cablefam.optimizer.model.tolerance import (common_draws, impedance_yield_analytic,
                                  impedance_yield_monte_carlo)
 from cablefam.optimizer.inputs.wire_size_table import standard_diameters
+from cablefam.physics.constants import FREE_SPACE_IMPEDANCE
 from cablefam.physics.wire_sizes import snap_to_sizes
 
 MATERIAL_TABLES = ("conductor", "shield", "dielectric", "jacket")
@@ -142,7 +142,7 @@ class ImpedanceSeededSampling(Sampling):
             m = problem.member
             z0 = m.impedance_ohm + m.impedance_tolerance_ohm * random_state.uniform(
                 -0.9, 0.9, n_seed)
-            eta_0 = mu_0 * speed_of_light
+            eta_0 = FREE_SPACE_IMPEDANCE
             col_a = layout.free_geometry.index("inner_radius_m")
             col_b = layout.free_geometry.index("dielectric_radius_m")
             b = x[rows, col_a] * np.exp(2.0 * np.pi * np.sqrt(eps) * z0 / eta_0)
