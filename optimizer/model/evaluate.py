@@ -11,8 +11,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from cablefam.physics import fields, line, mass, modes, stranding, thermal
-from cablefam.physics.eccentricity import geometry_factor, peak_field_factor
+from cablefam.physics import eccentricity, fields, line, mass, modes, stranding, thermal
+from cablefam.physics.internal_impedance import tube_dc_resistance
 from cablefam.physics.skin import skin_depth
 from cablefam.physics.units import neper_per_m_to_db_per_100m, per_m_to_per_km
 
@@ -66,22 +66,26 @@ def _has(table, *keys):
 
 
 def electromagnetic(d: Designs, op: OperatingPoint, method="auto",
-                    reference: Designs | None = None) -> dict[str, np.ndarray]:
+                    reference: Designs | None = None,
+                    geometry_factor: np.ndarray | None = None) -> dict[str, np.ndarray]:
     """Line parameters, impedance, attenuation, velocity, skin depths and the DC resistances.
 
     The line is evaluated at the resistivities of ``d``; skin depths and DC resistances at
     those of ``reference`` (default ``d``), so that :func:`evaluate` can give the line at the
-    operating temperatures beside the 20 degC reference values.
+    operating temperatures beside the 20 degC reference values. ``geometry_factor``: the
+    :math:`\Lambda` of :func:`geometry_factor_of`, when the caller has it.
     """
     a, b, c = d.inner_radius, d.dielectric_radius, d.shield_radius
     f = op.frequency_hz
+    lam = geometry_factor_of(d) if geometry_factor is None else geometry_factor
     lp = line.line_parameters(a, b, c, f, d.inner["resistivity_ohm_m"],
                               d.shield["resistivity_ohm_m"],
                               d.dielectric["relative_permittivity"], d.dielectric["loss_tangent"],
                               d.inner.get("relative_permeability", 1.0),
                               d.shield.get("relative_permeability", 1.0), method=method,
-                              offset=d.eccentricity, inner_strands=d.inner_strands)
-    return _line_quantities(d, op, lp, d if reference is None else reference)
+                              offset=d.eccentricity, inner_strands=d.inner_strands,
+                              geometry_factor=lam)
+    return _line_quantities(d, op, lp, d if reference is None else reference, lam)
 
 
 def electrical_inner_radius(d: Designs):
@@ -89,6 +93,12 @@ def electrical_inner_radius(d: Designs):
     if np.any(np.asarray(d.inner_strands) != 1):
         return stranding.stranded_effective_radius(d.inner_radius, d.inner_strands)
     return d.inner_radius
+
+
+def geometry_factor_of(d: Designs):
+    """The geometry factor of the designs (electrical inner radius, offset) [-]."""
+    return eccentricity.geometry_factor(electrical_inner_radius(d), d.dielectric_radius,
+                                        d.eccentricity)
 
 
 def _reference_quantities(d: Designs, op: OperatingPoint):
@@ -102,19 +112,20 @@ def _reference_quantities(d: Designs, op: OperatingPoint):
                                           d.shield.get("relative_permeability", 1.0)),
         "dc_resistance_inner_ohm_per_m": stranding.stranded_dc_resistance(
             a, d.inner_strands, d.inner["resistivity_ohm_m"]),
-        "dc_resistance_shield_ohm_per_m": d.shield["resistivity_ohm_m"] / (np.pi * (c * c - b * b)),
+        "dc_resistance_shield_ohm_per_m": tube_dc_resistance(b, c, d.shield["resistivity_ohm_m"]),
     }
     return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
 
 
 def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
-                     reference: Designs):
+                     reference: Designs, lam):
     a, b = d.inner_radius, d.dielectric_radius
     f = op.frequency_hz
     gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
     z0 = gamma / (lp.g + 2j * np.pi * f * lp.c)
     z0_lossless = line.characteristic_impedance_lossless(
-        electrical_inner_radius(d), b, d.dielectric["relative_permittivity"], d.eccentricity)
+        electrical_inner_radius(d), b, d.dielectric["relative_permittivity"], d.eccentricity,
+        geometry_factor=lam)
     alpha_c, alpha_d = line.attenuation_split(gamma.real, lp.r, lp.g, z0_lossless)
     out = {
         "z0_ohm": np.abs(z0),
@@ -157,9 +168,13 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
                   and _has(d.shield, "temperature_coefficient_per_k")
                   and _has(diel, "thermal_resistivity_k_m_per_w")
                   and (no_jacket or _has(jacket, "thermal_resistivity_k_m_per_w")))
-    common = None
+    # the geometry factor of the electrical radius (stranded: effective; offset: arccosh form),
+    # computed once and handed to every function that needs it
+    a_el = electrical_inner_radius(d)
+    lam = eccentricity.geometry_factor(a_el, b, d.eccentricity)
+    inputs = None
     if thermal_ok:
-        common = dict(
+        inputs = thermal.CoaxThermalInputs(
             a=a, b=b, c=c, d=rd, frequency=op.frequency_hz, ambient_c=op.ambient_c,
             inner_resistivity_20c=d.inner["resistivity_ohm_m"],
             inner_temperature_coefficient=d.inner["temperature_coefficient_per_k"],
@@ -171,11 +186,11 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
             jacket_thermal_resistivity=jacket.get("thermal_resistivity_k_m_per_w", 1.0),
             inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
             shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
-            offset=d.eccentricity, inner_strands=d.inner_strands,
+            offset=d.eccentricity, inner_strands=d.inner_strands, geometry_factor=lam,
         )
     state = None
     if thermal_ok and op.power_w is not None:
-        state = thermal.coax_thermal_state(power=op.power_w, **common)
+        state = thermal.steady_state(inputs, op.power_w)
         # the line at the operating temperatures of the two conductors
         hot = Designs(
             a, b, d.shield_thickness, d.jacket_thickness,
@@ -187,25 +202,22 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
                 np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
             dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
             inner_strands=d.inner_strands)
-        out = electromagnetic(hot, op, method, reference=d)
+        out = electromagnetic(hot, op, method, reference=d, geometry_factor=lam)
     else:
-        out = electromagnetic(d, op, method)
-    a_el = electrical_inner_radius(d)
+        out = electromagnetic(d, op, method, geometry_factor=lam)
     out["outer_diameter_m"] = mass.outer_diameter(rd) + 0.0 * a
     out["te11_cutoff_hz"] = modes.te11_cutoff_frequency(a_el, b, diel["relative_permittivity"])
     out["te11_cutoff_approx_hz"] = modes.te11_cutoff_frequency_approx(
         a_el, b, diel["relative_permittivity"])
     # an offset centre conductor: arccosh geometry factor and the field crowding on its near side
     # (stranded: the smooth conductor of the effective radius; crowns of strands not modelled)
-    lam = geometry_factor(a_el, b, d.eccentricity)
-    crowding = peak_field_factor(a_el, b, d.eccentricity)
     if op.peak_voltage_v is not None:
-        out["peak_e_field_v_per_m"] = fields.peak_electric_field(a_el, b, op.peak_voltage_v) * (
-            np.log(b / a_el) / lam * crowding)
+        out["peak_e_field_v_per_m"] = fields.peak_electric_field(
+            a_el, b, op.peak_voltage_v, offset=d.eccentricity, geometry_factor=lam)
     if "dielectric_strength_v_per_m" in diel:
         out["max_peak_voltage_v"] = fields.max_peak_voltage(
-            a_el, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor) * (
-            lam / np.log(b / a_el) / crowding)
+            a_el, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor,
+            offset=d.eccentricity, geometry_factor=lam)
     out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(
         out["dc_resistance_inner_ohm_per_m"] + out["dc_resistance_shield_ohm_per_m"])
 
@@ -240,7 +252,5 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
         })
     if thermal_ok and include_max_power and "max_temperature_c" in diel:
         jacket_max = jacket.get("max_temperature_c") if not no_jacket else None
-        out["max_power_w"] = thermal.max_power(
-            dielectric_max_temperature_c=diel["max_temperature_c"],
-            jacket_max_temperature_c=jacket_max, **common)
+        out["max_power_w"] = thermal.power_rating(inputs, diel["max_temperature_c"], jacket_max)
     return out
