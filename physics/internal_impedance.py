@@ -19,6 +19,8 @@ The functions return the internal impedance per unit length :math:`Z_i = R + jX_
 
 from __future__ import annotations
 
+from functools import lru_cache
+
 import numpy as np
 from scipy import special
 
@@ -185,18 +187,24 @@ def _tube_ratio_asymptotic_thick(ub):
     return horner(re_c, v), horner(im_c, v)
 
 
+@lru_cache(maxsize=None)
+def _tube_series_matrix(n_terms):
+    """Rows a_k(0), a_k(0)(-1)^k, a_k(1), a_k(1)(-1)^k, a_k(1), a_k(1)(-1)^k, highest power first."""
+    a0, a1, alt = hankel_coefficient_tables(n_terms)
+    return np.stack((a0, a0 * alt, a1, a1 * alt, a1, a1 * alt))[:, ::-1].copy()
+
+
 def _tube_ratio_asymptotic_general(ub, uc):
     """N/D from the Hankel series of I and K at both wall surfaces (any wall thickness)."""
-    a0, a1, alt = hankel_coefficient_tables(ASYMPTOTIC_TERMS)
+    coeffs = _tube_series_matrix(ASYMPTOTIC_TERMS)
     x_inv = 1.0 / ((1.0 + 1.0j) * ub)
     y_inv = 1.0 / ((1.0 + 1.0j) * uc)
-
-    def series(coeffs, w):
-        return np.polyval(coeffs[::-1], w)
-
-    s0x, t0x = series(a0, x_inv), series(a0 * alt, x_inv)
-    s1x, t1x = series(a1, x_inv), series(a1 * alt, x_inv)
-    s1y, t1y = series(a1, y_inv), series(a1 * alt, y_inv)
+    # the six series at once (Horner's rule as numpy.polyval evaluates it, row by row)
+    w = np.stack((x_inv, x_inv, x_inv, x_inv, y_inv, y_inv))
+    y = w * coeffs[:, :1] + coeffs[:, 1:2]
+    for k in range(2, coeffs.shape[1]):
+        y = y * w + coeffs[:, k:k + 1]
+    s0x, t0x, s1x, t1x, s1y, t1y = y
     q = np.exp(-2.0 * (1.0 + 1.0j) * (uc - ub))
     return (q * t0x * s1y + s0x * t1y) / (s1x * t1y - q * t1x * s1y)
 

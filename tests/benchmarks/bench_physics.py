@@ -379,8 +379,8 @@ def main(argv=None):
         print(f"  thermal fixed point ({k_prof:,} designs): {it.mean():.2f} passes per design "
               f"on average "
               f"(median {np.median(it):.0f}, max {it.max()}); line evaluations per design in "
-              f"evaluate: 1 (20 degC) + {it.mean():.2f} (passes) + 1 (hot) = "
-              f"{2 + it.mean():.2f}")
+              f"evaluate: {it.mean():.2f} (passes) + 1 (hot) = {1 + it.mean():.2f}; the "
+              "temperature-independent parts once")
         del state
         total, rows, _ = profile(lambda: em_path(*arrays, f, "auto"), 12)
         print_profile("vectorized EM path", total, rows)
@@ -388,12 +388,12 @@ def main(argv=None):
         print(f"  stages of evaluate() on {k_prof:,} designs ({total:.3f} s under cProfile), "
               "time inside each call made by evaluate():")
         stages = {}
-        for cumtime, ncalls, label in callee_times(stats, "optimizer/evaluate.py", "evaluate"):
+        for cumtime, ncalls, label in callee_times(stats, "optimizer/model/evaluate.py", "evaluate"):
             if cumtime >= 0.001 * total:
                 print(f"    {100 * cumtime / total:5.1f} %  {cumtime:7.3f} s  x{ncalls:<3d} "
                       f"{label}")
                 stages[label] = round(cumtime / total, 4)
-        te11 = next((ct for ct, _, label in callee_times(stats, "optimizer/evaluate.py",
+        te11 = next((ct for ct, _, label in callee_times(stats, "optimizer/model/evaluate.py",
                                                           "evaluate")
                      if label.endswith("(te11_cutoff_frequency)")), 0.0)
         rest = k_prof / (total - te11)
