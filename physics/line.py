@@ -287,26 +287,54 @@ def propagation_constant(r, l, g, c, frequency):  # noqa: E741
     Returns a complex array: real part the attenuation constant [Np m^-1], imaginary part the
     phase constant [rad m^-1] (Eq. (2.5) of [1]_).
 
+    Notes
+    -----
+    The principal root of :math:`w = u + jv = (R + jX)(G + jB)`, :math:`X = \omega L`,
+    :math:`B = \omega C`, is taken in real arithmetic without cancellation: with
+    :math:`t = \sqrt{(|w| + |u|)/2}`,
+
+    .. math:: \sqrt w = t + j\frac{v}{2t}\ (u \ge 0), \qquad
+              \sqrt w = \frac{|v|}{2t} + j\,\mathrm{sgn}(v)\,t\ (u < 0)
+
+    (the second is the case of every line: :math:`u \approx -\omega^2LC`), so that the small
+    attenuation constant keeps its relative accuracy (Sec. 5.4 of [2]_).
+
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
+    .. [2] W. Kahan, "Branch cuts for complex elementary functions", in *The State of the Art
+       in Numerical Analysis*, Clarendon Press, 1987, 165-211.
     """
     omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
-    return np.sqrt((r + 1j * omega * l) * (g + 1j * omega * c))
+    r, l, g, c = (np.asarray(x, dtype=float) for x in (r, l, g, c))  # noqa: E741
+    x = omega * l
+    b = omega * c
+    u = r * g - x * b
+    v = r * b + x * g
+    t = np.sqrt(0.5 * (np.sqrt(u * u + v * v) + np.abs(u)))
+    half_v = np.divide(0.5 * v, t, out=np.zeros(np.shape(t)), where=t > 0.0)
+    negative = u < 0.0
+    out = np.empty(np.shape(t), dtype=complex)
+    out.real = np.where(negative, np.abs(half_v), t)
+    out.imag = np.where(negative, np.copysign(t, v), half_v)
+    return out
 
 
-def characteristic_impedance(r, l, g, c, frequency):  # noqa: E741
+def characteristic_impedance(r, l, g, c, frequency, gamma=None):  # noqa: E741
     r"""Complex characteristic impedance :math:`Z_0 = \sqrt{(R + j\omega L)/(G + j\omega C)}`.
 
     Returns a complex array [ohm], computed as :math:`\gamma/(G + j\omega C)` so that the
-    branch of the root is that of :func:`propagation_constant` (Eq. (2.7) of [1]_).
+    branch of the root is that of :func:`propagation_constant` (Eq. (2.7) of [1]_); pass
+    ``gamma`` [m^-1] when it is computed already.
 
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
     """
     omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
-    return propagation_constant(r, l, g, c, frequency) / (g + 1j * omega * c)
+    if gamma is None:
+        gamma = propagation_constant(r, l, g, c, frequency)
+    return gamma / (g + 1j * omega * c)
 
 
 def characteristic_impedance_modulus(r, l, g, c, frequency):  # noqa: E741

@@ -68,7 +68,7 @@ def _has(table, *keys):
 def electromagnetic(d: Designs, op: OperatingPoint, method="auto",
                     reference: Designs | None = None,
                     geometry_factor: np.ndarray | None = None) -> dict[str, np.ndarray]:
-    """Line parameters, impedance, attenuation, velocity, skin depths and the DC resistances.
+    r"""Line parameters, impedance, attenuation, velocity, skin depths and the DC resistances.
 
     The line is evaluated at the resistivities of ``d``; skin depths and DC resistances at
     those of ``reference`` (default ``d``), so that :func:`evaluate` can give the line at the
@@ -122,7 +122,7 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
     a, b = d.inner_radius, d.dielectric_radius
     f = op.frequency_hz
     gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
-    z0 = gamma / (lp.g + 2j * np.pi * f * lp.c)
+    z0 = line.characteristic_impedance(lp.r, lp.l, lp.g, lp.c, f, gamma=gamma)
     z0_lossless = line.characteristic_impedance_lossless(
         electrical_inner_radius(d), b, d.dielectric["relative_permittivity"], d.eccentricity,
         geometry_factor=lam)
@@ -228,8 +228,7 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
         # taken as dielectric-free; their small share of dielectric mass is not counted)
         metal_share = 1.0
         if np.any(np.asarray(d.inner_strands) != 1):
-            lay = stranding.strand_layup(d.inner_strands)
-            metal_share = lay.area_ratio * stranding.lay_take_up_factor(d.inner_strands)
+            metal_share = stranding.stranded_metal_fraction(d.inner_strands)
         masses = mass.layer_masses(a, b, c, rd, d.inner["density_kg_per_m3"] * metal_share,
                                    diel["density_kg_per_m3"], d.shield["density_kg_per_m3"],
                                    jacket.get("density_kg_per_m3", 0.0))
