@@ -177,14 +177,15 @@ def geometry_factor_curvature(a, b, offset=0.0):
 
 
 def geometry_factor_offset_slope(a, b, offset=0.0):
-    r"""Derivative of :math:`\Lambda` by the squared offset, :math:`\partial\Lambda/\partial(D^2)` [m^-2].
+    r"""Derivative of :math:`\Lambda` by the squared offset [m^-2].
 
     Parameters and checks as in :func:`geometry_factor_gradient`.
 
     Returns
     -------
     numpy.ndarray
-        :math:`-1/\sqrt P`; :math:`-1/(b^2 - a^2)` at :math:`D = 0`, where
+        :math:`\partial\Lambda/\partial(D^2) = -1/\sqrt P`; :math:`-1/(b^2 - a^2)` at
+        :math:`D = 0`, where
         :math:`\Lambda \approx \ln(b/a) - D^2/(b^2 - a^2)`: the offset lowers :math:`\Lambda`
         to second order in :math:`D`.
 
@@ -263,7 +264,9 @@ def peak_field_factor(a, b, offset=0.0):
     a, b, d = _as_float(a, b, offset)
     if not np.any(d):
         return np.ones(a.shape)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        ch = (b * b - a * a - d * d) / (2.0 * a * d)
-        g = (ch + 1.0) / np.sqrt(np.maximum(ch * ch - 1.0, SQRT_ARGUMENT_FLOOR))
+    # (cosh + 1)/sinh = sqrt((1 + r)/(1 - r)) with r = 1/cosh: neither cosh nor its square,
+    # which overflow for an offset many orders of magnitude below the radii
+    with np.errstate(divide="ignore", invalid="ignore"):  # only for D >= b - a (invalid)
+        r = 2.0 * a * d / (b * b - a * a - d * d)
+        g = np.sqrt((1.0 + r) / np.maximum(1.0 - r, SQRT_ARGUMENT_FLOOR))
     return np.where(d == 0.0, 1.0, g)

@@ -189,7 +189,8 @@ def _tube_ratio_asymptotic_thick(ub):
 
 @lru_cache(maxsize=None)
 def _tube_series_matrix(n_terms):
-    """Rows a_k(0), a_k(0)(-1)^k, a_k(1), a_k(1)(-1)^k, a_k(1), a_k(1)(-1)^k, highest power first."""
+    """Rows a_k(0), a_k(0)(-1)^k, a_k(1), a_k(1)(-1)^k, a_k(1), a_k(1)(-1)^k; highest power
+    first."""
     a0, a1, alt = hankel_coefficient_tables(n_terms)
     return np.stack((a0, a0 * alt, a1, a1 * alt, a1, a1 * alt))[:, ::-1].copy()
 
@@ -336,7 +337,7 @@ def wire_dc_resistance(radius, resistivity):
 
 
 def tube_dc_resistance(inner_radius, outer_radius, resistivity):
-    r"""DC resistance per unit length of a tube (the shield), :math:`\rho/(\pi(c^2-b^2))` [ohm m^-1].
+    r"""DC resistance per unit length of a tube, :math:`\rho/(\pi(c^2-b^2))` [ohm m^-1].
 
     Parameters
     ----------

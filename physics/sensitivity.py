@@ -211,18 +211,18 @@ def impedance_sensitivity(a, b, relative_permittivity, offset=0.0):
 
 
 def impedance_offset_sensitivity(a, b, relative_permittivity, offset=0.0):
-    r"""Derivative of the lossless :math:`Z_0` by the squared offset, :math:`\partial Z_0/\partial(D^2)`.
+    r"""Derivative of the lossless :math:`Z_0` by the squared offset.
 
     Parameters as in :func:`impedance_sensitivity` (same checks).
 
     Returns
     -------
     numpy.ndarray
-        :math:`K\,\partial\Lambda/\partial(D^2) = -K/\sqrt P` [ohm m^-2]; :math:`-K/(b^2-a^2)`
-        at :math:`D = 0`, where :math:`\partial Z_0/\partial D` vanishes and the offset acts
-        through :math:`D^2` only (:func:`cablefam.physics.eccentricity.geometry_factor_offset_slope`).
-        First-order propagation of a random offset of two normal axes uses it with
-        :math:`E\,D^2` and :math:`\mathrm{Var}\,D^2`.
+        :math:`\partial Z_0/\partial(D^2) = K\,\partial\Lambda/\partial(D^2) = -K/\sqrt P`
+        [ohm m^-2] (:func:`cablefam.physics.eccentricity.geometry_factor_offset_slope`);
+        :math:`-K/(b^2-a^2)` at :math:`D = 0`, where :math:`\partial Z_0/\partial D` vanishes
+        and the offset acts through :math:`D^2` only. First-order propagation of a random
+        offset of two normal axes uses it with :math:`E\,D^2` and :math:`\mathrm{Var}\,D^2`.
     """
     a, b, d = _checks.coax_radii(a, b, offset)
     eps = _checks.positive("relative_permittivity", relative_permittivity)

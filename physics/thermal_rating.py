@@ -149,7 +149,8 @@ def max_power(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
                          \theta_{sh}(e^x) - \theta_{j,\max}\right) = 0,
         \qquad P_{\max} = e^x
 
-    where :math:`\theta_c(P)` and :math:`\theta_{sh}(P)` come from :func:`cablefam.physics.thermal.coax_thermal_state`;
+    where :math:`\theta_c(P)` and :math:`\theta_{sh}(P)` come from
+    :func:`cablefam.physics.thermal.coax_thermal_state`;
     :math:`F` grows monotonically with :math:`P`, so its root is the largest power meeting
     both limits (the conductor temperature limit of clause 1.4.1.1 of [1]_ applied to the
     coax, the second one protecting the jacket). A first estimate scales a 1 W solution
