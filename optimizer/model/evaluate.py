@@ -61,6 +61,15 @@ class OperatingPoint:
     ambient_c: float | np.ndarray = 20.0
 
 
+def _float_array(value, shape):
+    """``value`` as a float array of ``shape`` that owns its data: an array computed here that
+    already is one is kept (no copy), anything else (scalars, views, broadcasts) is copied."""
+    if (isinstance(value, np.ndarray) and value.shape == shape and value.dtype == np.float64
+            and value.flags.c_contiguous and value.flags.owndata):
+        return value
+    return np.broadcast_to(value, shape).astype(float)
+
+
 def _has(table, *keys):
     return table is not None and all(k in table for k in keys)
 
@@ -114,7 +123,7 @@ def _reference_quantities(d: Designs, op: OperatingPoint):
             a, d.inner_strands, d.inner["resistivity_ohm_m"]),
         "dc_resistance_shield_ohm_per_m": tube_dc_resistance(b, c, d.shield["resistivity_ohm_m"]),
     }
-    return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+    return {k: _float_array(v, np.shape(a)) for k, v in out.items()}
 
 
 def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
@@ -142,7 +151,7 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
         "velocity_factor": line.velocity_factor(gamma.imag, f),
         "delay_s_per_m": line.delay_per_metre(gamma.imag, f),
     }
-    out = {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+    out = {k: _float_array(v, np.shape(a)) for k, v in out.items()}
     out.update(_reference_quantities(reference, op))
     return out
 
