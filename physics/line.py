@@ -205,9 +205,11 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
     r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
                                          shield_relative_permeability, method=method)
     if fixed.inner_skin_effect_factor is not None:
+        skin = fixed.inner_skin_effect_factor
         r_dc = wire_dc_resistance(a, inner_resistivity) * fixed.inner_dc_resistance_factor
-        r_i = np.maximum(r_i * fixed.inner_skin_effect_factor, r_dc)
-        x_i = x_i * fixed.inner_skin_effect_factor
+        # solid wires (factor exactly 1) untouched: the same bits as in an all-solid population
+        r_i = np.where(skin == 1.0, r_i, np.maximum(r_i * skin, r_dc))
+        x_i = x_i * skin
     if fixed.inner_loss_factor is not None:
         r_i, x_i = r_i * fixed.inner_loss_factor, x_i * fixed.inner_loss_factor
         r_s, x_s = r_s * fixed.shield_loss_factor, x_s * fixed.shield_loss_factor
