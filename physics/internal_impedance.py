@@ -294,8 +294,9 @@ def tube_resistance_reactance(inner_radius, outer_radius, resistivity, frequency
         thick = big & (2.0 * (uc - ub) >= _WALL_COUPLING_NEGLIGIBLE)
         if big.all():  # the usual case at radio frequencies: no masks on the thick walls
             ratio_re, ratio_im = _tube_ratio_asymptotic_thick(ub)
-            thin = np.flatnonzero(~thick)
-            if thin.size:  # the few walls thinner than ~20 skin depths, replaced
+            thin = ~thick
+            if thin.any():  # the few walls thinner than ~20 skin depths, replaced
+                ratio_re, ratio_im = np.asarray(ratio_re), np.asarray(ratio_im)
                 ratio = _tube_ratio_asymptotic_general(ub[thin], uc[thin])
                 ratio_re[thin], ratio_im[thin] = ratio.real, ratio.imag
         else:
