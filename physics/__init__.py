@@ -5,7 +5,9 @@ Modules, one per physical area:
 - :mod:`cablefam.physics.skin` -- skin depth and surface resistance.
 - :mod:`cablefam.physics.internal_impedance` -- internal impedance of the round centre conductor and of
   the tubular shield (exact Bessel forms, exponentially scaled, with large-argument series).
-- :mod:`cablefam.physics.line` -- R, L, G, C, characteristic impedance, propagation constant, attenuation.
+- :mod:`cablefam.physics.line` -- R, L, G, C of a coax and its lossless impedance.
+- :mod:`cablefam.physics.propagation` -- propagation constant, characteristic impedance,
+  attenuation split, velocity: what follows from R, L, G, C.
 - :mod:`cablefam.physics.fields` -- B(r), J(r), E(r) in the four regions; peak field and voltage rating.
 - :mod:`cablefam.physics.modes` -- TE11 cutoff (exact Bessel cross-product root and the usual estimate).
 - :mod:`cablefam.physics.thermal` -- IEC 60287 steady-state temperature rise and power rating

@@ -1,4 +1,7 @@
-r"""Transmission-line parameters of a coax: R, L, G, C and what follows from them.
+r"""Transmission-line parameters of a coax: R, L, G, C and the lossless impedance.
+
+What follows from R, L, G, C for any line (propagation constant, characteristic impedance,
+attenuation split, velocity) is in :mod:`cablefam.physics.propagation`, re-exported here.
 
 Geometry symbols (used throughout :mod:`physics`): centre-conductor radius :math:`a`,
 dielectric outer radius :math:`b` (= shield inner radius), shield outer radius :math:`c`.
@@ -12,9 +15,13 @@ from typing import NamedTuple
 import numpy as np
 
 from cablefam.physics import eccentricity
-from cablefam.physics.constants import FREE_SPACE_IMPEDANCE, epsilon_0, mu_0, speed_of_light
+from cablefam.physics.constants import FREE_SPACE_IMPEDANCE, epsilon_0, mu_0
 from cablefam.physics.internal_impedance import (tube_resistance_reactance, wire_dc_resistance,
                                                  wire_resistance_reactance)
+from cablefam.physics.propagation import (attenuation_split,  # noqa: F401 (re-exported)
+                                          characteristic_impedance,
+                                          characteristic_impedance_modulus, delay_per_metre,
+                                          propagation_constant, velocity_factor)
 from cablefam.physics.stranding import stranded_effective_radius, strand_layup
 
 
@@ -243,9 +250,9 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
     inner_strands : array_like of int, optional
         Strand count of the centre conductor (1, 7, 19, 37; ``a`` is then its overall
         radius): external L and C use the effective radius of
-        :func:`cablefam.physics.stranding.stranded_effective_radius`; the internal impedance is that of
-        a solid wire of the overall radius times the stranding skin-effect factor, its
-        resistance never below the DC resistance of the strands.
+        :func:`cablefam.physics.stranding.stranded_effective_radius`; the internal impedance
+        is that of a solid wire of the overall radius times the stranding skin-effect factor,
+        its resistance never below the DC resistance of the strands.
     geometry_factor : array_like, optional
         :math:`\Lambda` of the effective centre-conductor radius, ``b`` and ``offset`` when
         the caller has it already [-] (computed here otherwise).
@@ -283,87 +290,11 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                           r_inner=z.r_inner, r_shield=z.r_shield)
 
 
-def propagation_constant(r, l, g, c, frequency):  # noqa: E741
-    r"""Propagation constant :math:`\gamma = \sqrt{(R + j\omega L)(G + j\omega C)}` [m^-1].
-
-    Returns a complex array: real part the attenuation constant [Np m^-1], imaginary part the
-    phase constant [rad m^-1] (Eq. (2.5) of [1]_).
-
-    Notes
-    -----
-    The principal root of :math:`w = u + jv = (R + jX)(G + jB)`, :math:`X = \omega L`,
-    :math:`B = \omega C`, is taken in real arithmetic without cancellation: with
-    :math:`t = \sqrt{(|w| + |u|)/2}`,
-
-    .. math:: \sqrt w = t + j\frac{v}{2t}\ (u \ge 0), \qquad
-              \sqrt w = \frac{|v|}{2t} + j\,\mathrm{sgn}(v)\,t\ (u < 0)
-
-    (the second is the case of every line: :math:`u \approx -\omega^2LC`), so that the small
-    attenuation constant keeps its relative accuracy (Sec. 5.4 of [2]_).
-
-    References
-    ----------
-    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
-    .. [2] W. Kahan, "Branch cuts for complex elementary functions", in *The State of the Art
-       in Numerical Analysis*, Clarendon Press, 1987, 165-211.
-    """
-    omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
-    r, l, g, c = (np.asarray(x, dtype=float) for x in (r, l, g, c))  # noqa: E741
-    x = omega * l
-    b = omega * c
-    u = r * g - x * b
-    v = r * b + x * g
-    t = np.sqrt(0.5 * (np.sqrt(u * u + v * v) + np.abs(u)))
-    half_v = np.divide(0.5 * v, t, out=np.zeros(np.shape(t)), where=t > 0.0)
-    negative = u < 0.0
-    out = np.empty(np.shape(t), dtype=complex)
-    out.real = np.where(negative, np.abs(half_v), t)
-    out.imag = np.where(negative, np.copysign(t, v), half_v)
-    return out
-
-
-def characteristic_impedance(r, l, g, c, frequency, gamma=None):  # noqa: E741
-    r"""Complex characteristic impedance :math:`Z_0 = \sqrt{(R + j\omega L)/(G + j\omega C)}`.
-
-    Returns a complex array [ohm], computed as :math:`\gamma/(G + j\omega C)` so that the
-    branch of the root is that of :func:`propagation_constant` (Eq. (2.7) of [1]_); pass
-    ``gamma`` [m^-1] when it is computed already.
-
-    References
-    ----------
-    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
-    """
-    omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
-    if gamma is None:
-        gamma = propagation_constant(r, l, g, c, frequency)
-    return gamma / (g + 1j * omega * c)
-
-
-def characteristic_impedance_modulus(r, l, g, c, frequency):  # noqa: E741
-    r"""Modulus of the characteristic impedance, :math:`|Z_0|` [ohm], in real arithmetic.
-
-    .. math:: |Z_0| = \sqrt{\frac{|R + j\omega L|}{|G + j\omega C|}}
-              = \left(\frac{R^2 + \omega^2L^2}{G^2 + \omega^2C^2}\right)^{1/4}
-
-    the modulus of :func:`characteristic_impedance` (Eq. (2.7) of [1]_) without complex
-    square roots; equal to it to rounding (per-unit-length parameters of real lines are far
-    from over- or underflow when squared).
-
-    References
-    ----------
-    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
-    """
-    omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
-    x = omega * l
-    b = omega * c
-    return np.sqrt(np.sqrt((r * r + x * x) / (g * g + b * b)))
-
-
 def characteristic_impedance_lossless(a, b, relative_permittivity, offset=0.0,
                                       geometry_factor=None):
-    r"""Lossless characteristic impedance :math:`\sqrt{L_e/C} = \eta_0\ln(b/a)/(2\pi\sqrt{\varepsilon_r})` [ohm].
+    r"""Lossless characteristic impedance :math:`\sqrt{L_e/C}` [ohm].
 
-    :math:`K\Lambda` with :math:`K` of :func:`impedance_per_geometry_factor`; ``offset`` and
+    :math:`\eta_0\ln(b/a)/(2\pi\sqrt{\varepsilon_r})`, i.e. :math:`K\Lambda` with :math:`K` of :func:`impedance_per_geometry_factor`; ``offset`` and
     ``geometry_factor`` as in :func:`capacitance`.
 
     References
@@ -372,47 +303,3 @@ def characteristic_impedance_lossless(a, b, relative_permittivity, offset=0.0,
     """
     return impedance_per_geometry_factor(relative_permittivity) * _lambda(a, b, offset,
                                                                           geometry_factor)
-
-
-def attenuation_split(alpha, r, g, z0_lossless):
-    r"""Split the attenuation constant into its conductor and dielectric parts.
-
-    Parameters
-    ----------
-    alpha : array_like
-        Total attenuation constant :math:`\mathrm{Re}\,\gamma` [Np m^-1] (exact RLGC value).
-    r, g : array_like
-        Series resistance [ohm m^-1] and shunt conductance [S m^-1].
-    z0_lossless : array_like
-        :math:`\sqrt{L/C}` [ohm].
-
-    Returns
-    -------
-    tuple of numpy.ndarray
-        ``(alpha_conductor, alpha_dielectric)`` [Np m^-1], summing exactly to ``alpha``.
-
-    Notes
-    -----
-    The low-loss parts :math:`\alpha_c \approx R/(2Z_0)` and :math:`\alpha_d \approx GZ_0/2`
-    (Sec. 2.7 of [1]_) set the proportions in which the exact total is shared; the split of
-    a lossy line is not unique beyond that first order.
-
-    References
-    ----------
-    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
-    """
-    a_c = np.asarray(r) / (2.0 * z0_lossless)
-    a_d = np.asarray(g) * z0_lossless / 2.0
-    total = a_c + a_d
-    share_c = np.divide(a_c, total, out=np.zeros(np.shape(total)), where=total > 0)
-    return alpha * share_c, alpha * (1.0 - share_c)
-
-
-def velocity_factor(beta, frequency):
-    r"""Phase velocity over the speed of light, :math:`v_p/c_0 = \omega/(\beta c_0)` [-]."""
-    return 2.0 * np.pi * np.asarray(frequency, dtype=float) / (np.asarray(beta) * speed_of_light)
-
-
-def delay_per_metre(beta, frequency):
-    r"""Phase delay per unit length, :math:`\beta/\omega` [s m^-1]."""
-    return np.asarray(beta) / (2.0 * np.pi * np.asarray(frequency, dtype=float))

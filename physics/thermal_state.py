@@ -14,8 +14,8 @@ from typing import NamedTuple
 import numpy as np
 
 from cablefam.physics import _checks
-from cablefam.physics.line import (LineFixedParts, characteristic_impedance_modulus,
-                                   conductor_impedances, line_fixed_parts)
+from cablefam.physics.line import LineFixedParts, conductor_impedances, line_fixed_parts
+from cablefam.physics.propagation import characteristic_impedance_modulus
 from cablefam.physics.thermal_inputs import (CoaxThermalInputs, checked_flat_inputs,
                                              resistivity_at_temperature, take)
 from cablefam.physics.thermal_resistances import (free_air_heat_transfer_coefficient,

@@ -12,7 +12,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from cablefam.physics import eccentricity, fields, line, mass, modes, stranding, thermal
+from cablefam.physics import (eccentricity, fields, line, mass, modes, propagation, stranding,
+                              thermal)
 from cablefam.physics.internal_impedance import tube_dc_resistance
 from cablefam.physics.skin import skin_depth
 from cablefam.physics.units import neper_per_m_to_db_per_100m, per_m_to_per_km
@@ -131,12 +132,12 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
                      reference: Designs, lam):
     a, b = d.inner_radius, d.dielectric_radius
     f = op.frequency_hz
-    gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
-    z0 = line.characteristic_impedance(lp.r, lp.l, lp.g, lp.c, f, gamma=gamma)
+    gamma = propagation.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
+    z0 = propagation.characteristic_impedance(lp.r, lp.l, lp.g, lp.c, f, gamma=gamma)
     z0_lossless = line.characteristic_impedance_lossless(
         electrical_inner_radius(d), b, d.dielectric["relative_permittivity"], d.eccentricity,
         geometry_factor=lam)
-    alpha_c, alpha_d = line.attenuation_split(gamma.real, lp.r, lp.g, z0_lossless)
+    alpha_c, alpha_d = propagation.attenuation_split(gamma.real, lp.r, lp.g, z0_lossless)
     out = {
         "z0_ohm": np.abs(z0),
         "z0_real_ohm": z0.real,
@@ -149,8 +150,8 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
         "attenuation_db_per_100m": neper_per_m_to_db_per_100m(gamma.real),
         "conductor_attenuation_db_per_100m": neper_per_m_to_db_per_100m(alpha_c),
         "dielectric_attenuation_db_per_100m": neper_per_m_to_db_per_100m(alpha_d),
-        "velocity_factor": line.velocity_factor(gamma.imag, f),
-        "delay_s_per_m": line.delay_per_metre(gamma.imag, f),
+        "velocity_factor": propagation.velocity_factor(gamma.imag, f),
+        "delay_s_per_m": propagation.delay_per_metre(gamma.imag, f),
     }
     out = {k: _float_array(v, np.shape(a)) for k, v in out.items()}
     out.update(_reference_quantities(reference, op))
