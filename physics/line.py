@@ -294,8 +294,9 @@ def characteristic_impedance_lossless(a, b, relative_permittivity, offset=0.0,
                                       geometry_factor=None):
     r"""Lossless characteristic impedance :math:`\sqrt{L_e/C}` [ohm].
 
-    :math:`\eta_0\ln(b/a)/(2\pi\sqrt{\varepsilon_r})`, i.e. :math:`K\Lambda` with :math:`K` of :func:`impedance_per_geometry_factor`; ``offset`` and
-    ``geometry_factor`` as in :func:`capacitance`.
+    :math:`\eta_0\ln(b/a)/(2\pi\sqrt{\varepsilon_r})`, i.e. :math:`K\Lambda` with
+    :math:`K` of :func:`impedance_per_geometry_factor`; ``offset`` and ``geometry_factor`` as
+    in :func:`capacitance`.
 
     References
     ----------
