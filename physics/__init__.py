@@ -5,17 +5,24 @@ Modules, one per physical area:
 - :mod:`cablefam.physics.skin` -- skin depth and surface resistance.
 - :mod:`cablefam.physics.internal_impedance` -- internal impedance of the round centre conductor and of
   the tubular shield (exact Bessel forms, exponentially scaled, with large-argument series).
-- :mod:`cablefam.physics.line` -- R, L, G, C, characteristic impedance, propagation constant, attenuation.
+- :mod:`cablefam.physics.line` -- R, L, G, C of a coax and its lossless impedance.
+- :mod:`cablefam.physics.propagation` -- propagation constant, characteristic impedance,
+  attenuation split, velocity: what follows from R, L, G, C.
 - :mod:`cablefam.physics.fields` -- B(r), J(r), E(r) in the four regions; peak field and voltage rating.
 - :mod:`cablefam.physics.modes` -- TE11 cutoff (exact Bessel cross-product root and the usual estimate).
-- :mod:`cablefam.physics.thermal` -- IEC 60287 steady-state temperature rise and power rating.
+- :mod:`cablefam.physics.thermal` -- IEC 60287 steady-state temperature rise and power rating
+  (re-exports :mod:`~cablefam.physics.thermal_inputs`, :mod:`~cablefam.physics.thermal_resistances`,
+  :mod:`~cablefam.physics.thermal_state`, :mod:`~cablefam.physics.thermal_rating`).
 - :mod:`cablefam.physics.mass` -- mass, cost, outer diameter and DC loop resistance.
 - :mod:`cablefam.physics.eccentricity` -- offset centre conductor: arccosh impedance, Wheeler loss
   factors, field crowding.
-- :mod:`cablefam.physics.sensitivity` -- analytic derivatives of Z0 and attenuation by each radius.
+- :mod:`cablefam.physics.sensitivity` -- analytic derivatives of Z0 and attenuation by each radius
+  (the derivatives of the geometry factor itself are in :mod:`~cablefam.physics.eccentricity`).
 - :mod:`cablefam.physics.stranding` -- 7/19/37-strand centre conductors: effective radius, resistance.
 - :mod:`cablefam.physics.wire_sizes` -- the AWG series (ASTM B258) and snapping to standard sizes.
 - :mod:`cablefam.physics.units` -- the unit conversions used at the edges.
+- :mod:`cablefam.physics.constants` -- physical constants and references, each defined once.
+- :mod:`cablefam.physics.hankel_series` -- large-argument Bessel series of the internal impedances.
 
 Every function broadcasts over numpy arrays of any shape, so one call evaluates a whole
 population of designs. Nothing here does I/O or keeps state.

@@ -25,7 +25,33 @@ References
 
 from __future__ import annotations
 
+from typing import NamedTuple
+
 import numpy as np
+
+from cablefam.physics import _checks
+from cablefam.physics.constants import SQRT_ARGUMENT_FLOOR
+
+
+class GeometryGradient(NamedTuple):
+    r"""First derivatives of the geometry factor :math:`\Lambda`; arrays of a common shape."""
+
+    d_da: np.ndarray
+    r""":math:`\partial\Lambda/\partial a` [m^-1] (:math:`-1/a` at :math:`D = 0`)."""
+    d_db: np.ndarray
+    r""":math:`\partial\Lambda/\partial b` [m^-1] (:math:`1/b` at :math:`D = 0`)."""
+    d_doffset: np.ndarray
+    r""":math:`\partial\Lambda/\partial D` [m^-1] (0 at :math:`D = 0`)."""
+
+
+class GeometryCurvature(NamedTuple):
+    r"""Second derivatives of :math:`\Lambda`; arrays of a common shape [m^-2]."""
+
+    d2_da2: np.ndarray
+    d2_dadb: np.ndarray
+    d2_db2: np.ndarray
+    d2_dadoffset: np.ndarray
+    d2_dbdoffset: np.ndarray
 
 
 def _as_float(*xs):
@@ -57,57 +83,170 @@ def geometry_factor(a, b, offset=0.0):
     return np.where(d == 0.0, np.log(b / a), ecc)
 
 
-def wheeler_loss_factor(a, b, offset=0.0):
-    r"""Conductor-loss factor of an offset line over the concentric one, :math:`\ge 1` [-].
+def _gradient_terms(a, b, d):
+    r""":math:`N_a = a^2 - b^2 + D^2`, :math:`N_b = b^2 - a^2 + D^2`, :math:`P`, :math:`\sqrt P`."""
+    p = ((b - a) ** 2 - d * d) * ((b + a) ** 2 - d * d)
+    return a * a - b * b + d * d, b * b - a * a + d * d, p, np.sqrt(
+        np.maximum(p, SQRT_ARGUMENT_FLOOR))
+
+
+def geometry_factor_gradient(a, b, offset=0.0):
+    r"""Derivatives of :math:`\Lambda = \operatorname{arccosh}((a^2+b^2-D^2)/(2ab))`.
+
+    Parameters
+    ----------
+    a, b : array_like
+        Centre-conductor radius and dielectric (shield inner) radius [m], ``0 < a < b``.
+    offset : array_like, optional
+        Distance :math:`D` between the axes of the two conductors [m], ``|D| < b - a``.
+        The derivative with respect to :math:`D` is taken for :math:`D \ge 0` (the sign of
+        ``offset`` is ignored: only the distance matters).
+
+    Returns
+    -------
+    GeometryGradient
+        ``d_da``, ``d_db``, ``d_doffset`` [m^-1].
+
+    Raises
+    ------
+    ValueError
+        If any design has ``a <= 0``, ``b <= a`` or ``|offset| >= b - a`` (or NaN).
+
+    Notes
+    -----
+    With :math:`P = ((b-a)^2 - D^2)((b+a)^2 - D^2)`, so that
+    :math:`\sqrt{X^2 - 1} = \sqrt P/(2ab)` without cancellation as :math:`D \to 0`:
 
     .. math::
-        F = \frac{-\partial\Lambda/\partial a + \partial\Lambda/\partial b}{1/a + 1/b},
-        \quad \frac{\partial\Lambda}{\partial a} = \frac{a^2 - b^2 + D^2}{2a^2 b\,s},
-        \quad \frac{\partial\Lambda}{\partial b} = \frac{b^2 - a^2 + D^2}{2ab^2\,s},
-        \quad s = \sqrt{X^2 - 1}
+        \frac{\partial\Lambda}{\partial a} = \frac{a^2 - b^2 + D^2}{a\sqrt{P}}, \qquad
+        \frac{\partial\Lambda}{\partial b} = \frac{b^2 - a^2 + D^2}{b\sqrt{P}}, \qquad
+        \frac{\partial\Lambda}{\partial D} = \frac{-2D}{\sqrt{P}}
 
-    with :math:`X = (a^2+b^2-D^2)/(2ab)`; Wheeler's rule [3]_ applied to :math:`\Lambda`
-    (same surface resistance on both conductors). :math:`F = 1` at :math:`D = 0`.
-    Multiply the skin-effect resistance of the concentric line by it; valid where the skin
-    depth is small against both radii (an upper bound of the increase otherwise).
+    from :math:`\partial\Lambda/\partial x = (\partial X/\partial x)/\sqrt{X^2 - 1}`; at
+    :math:`D = 0` they are exactly :math:`-1/a`, :math:`1/b`, 0 (the derivatives of
+    :math:`\ln(b/a)`). Geometry of the eccentric line: Sec. 4.8 of [1]_.
     """
-    a, b, d = _as_float(a, b, offset)
-    x = (a * a + b * b - d * d) / (2.0 * a * b)
-    s = np.sqrt(np.maximum(x * x - 1.0, 1e-300))
-    d_da = (a * a - b * b + d * d) / (2.0 * a * a * b * s)
-    d_db = (b * b - a * a + d * d) / (2.0 * a * b * b * s)
-    f = (-d_da + d_db) / (1.0 / a + 1.0 / b)
-    return np.where(d == 0.0, 1.0, f)
+    a, b, d = _checks.coax_radii(a, b, offset)
+    n_a, n_b, _, sq = _gradient_terms(a, b, d)
+    zero = d == 0.0
+    return GeometryGradient(d_da=np.where(zero, -1.0 / a, n_a / (a * sq)),
+                            d_db=np.where(zero, 1.0 / b, n_b / (b * sq)),
+                            d_doffset=np.where(zero, 0.0, -2.0 * d / sq))
 
 
-def characteristic_impedance_eccentric(a, b, offset, relative_permittivity):
-    r"""Lossless characteristic impedance of an eccentric coax,
-    :math:`\eta_0\Lambda/(2\pi\sqrt{\varepsilon_r})` [ohm] (see the module notes)."""
-    from scipy.constants import mu_0, speed_of_light
+def geometry_factor_curvature(a, b, offset=0.0):
+    r"""Second derivatives of :math:`\Lambda` by the radii and the offset [m^-2].
 
-    eta_0 = mu_0 * speed_of_light
-    return eta_0 / (2.0 * np.pi * np.sqrt(np.asarray(relative_permittivity, dtype=float))) * (
-        geometry_factor(a, b, offset))
+    Parameters and checks as in :func:`geometry_factor_gradient`.
+
+    Returns
+    -------
+    GeometryCurvature
+        :math:`\Lambda_{aa}, \Lambda_{ab}, \Lambda_{bb}, \Lambda_{aD}, \Lambda_{bD}`; at
+        :math:`D = 0` exactly :math:`1/a^2, 0, -1/b^2, 0, 0`.
+
+    Notes
+    -----
+    Differentiating :math:`\Lambda_a = N_a/(a\sqrt P)` and :math:`\Lambda_b = N_b/(b\sqrt P)`
+    (:func:`geometry_factor_gradient`) once more, with :math:`P_a = -4aN_b`,
+    :math:`P_b = 4b(b^2 - a^2 - D^2)`, :math:`P_D = -4D(a^2 + b^2 - D^2)`:
+
+    .. math::
+        \Lambda_{aa} = \frac{2}{\sqrt P} - \frac{N_a}{a^2\sqrt P} - \frac{N_a P_a}{2aP\sqrt P},
+        \quad
+        \Lambda_{ab} = -\frac{2b}{a\sqrt P} - \frac{N_a P_b}{2aP\sqrt P},
+        \quad
+        \Lambda_{aD} = \frac{2D}{a\sqrt P} - \frac{N_a P_D}{2aP\sqrt P}
+
+    and likewise for :math:`\Lambda_{bb}`, :math:`\Lambda_{bD}` with :math:`a \leftrightarrow b`.
+    """
+    a, b, d = _checks.coax_radii(a, b, offset)
+    n_a, n_b, p, sq = _gradient_terms(a, b, d)
+    p_a = -4.0 * a * n_b
+    p_b = 4.0 * b * (b * b - a * a - d * d)
+    p_d = -4.0 * d * (a * a + b * b - d * d)
+    zero = d == 0.0
+    return GeometryCurvature(
+        d2_da2=np.where(zero, 1.0 / (a * a),
+                        2.0 / sq - n_a / (a * a * sq) - n_a * p_a / (2.0 * a * p * sq)),
+        d2_dadb=np.where(zero, 0.0, -2.0 * b / (a * sq) - n_a * p_b / (2.0 * a * p * sq)),
+        d2_db2=np.where(zero, -1.0 / (b * b),
+                        2.0 / sq - n_b / (b * b * sq) - n_b * p_b / (2.0 * b * p * sq)),
+        d2_dadoffset=np.where(zero, 0.0, 2.0 * d / (a * sq) - n_a * p_d / (2.0 * a * p * sq)),
+        d2_dbdoffset=np.where(zero, 0.0, 2.0 * d / (b * sq) - n_b * p_d / (2.0 * b * p * sq)))
+
+
+def geometry_factor_offset_slope(a, b, offset=0.0):
+    r"""Derivative of :math:`\Lambda` by the squared offset [m^-2].
+
+    Parameters and checks as in :func:`geometry_factor_gradient`.
+
+    Returns
+    -------
+    numpy.ndarray
+        :math:`\partial\Lambda/\partial(D^2) = -1/\sqrt P`; :math:`-1/(b^2 - a^2)` at
+        :math:`D = 0`, where
+        :math:`\Lambda \approx \ln(b/a) - D^2/(b^2 - a^2)`: the offset lowers :math:`\Lambda`
+        to second order in :math:`D`.
+
+    Notes
+    -----
+    :math:`\Lambda` depends on :math:`D` through :math:`X = (a^2+b^2-D^2)/(2ab)` only, so
+    :math:`\partial\Lambda/\partial(D^2) = -1/(2ab\sqrt{X^2-1}) = -1/\sqrt P`, exact for any
+    :math:`D` (the first-order term of :math:`\Lambda` in :math:`D^2`).
+    """
+    a, b, d = _checks.coax_radii(a, b, offset)
+    *_, sq = _gradient_terms(a, b, d)
+    return np.where(d == 0.0, -1.0 / (b * b - a * a), -1.0 / sq)
 
 
 def wheeler_loss_factors(a, b, offset=0.0):
     r"""Per-conductor loss factors of an offset line, ``(inner, shield)``, each 1 at D = 0.
 
-    .. math:: F_a = -a\,\frac{\partial\Lambda}{\partial a}, \qquad
-              F_b = b\,\frac{\partial\Lambda}{\partial b}
+    .. math:: F_a = -a\,\frac{\partial\Lambda}{\partial a} = -\frac{N_a}{\sqrt P}, \qquad
+              F_b = b\,\frac{\partial\Lambda}{\partial b} = \frac{N_b}{\sqrt P}
 
-    (Wheeler's rule [3]_ per conductor, so that different metals keep their own surface
-    resistance). Multiply each conductor's skin-effect internal impedance by its factor.
+    with the derivatives of :func:`geometry_factor_gradient` (Wheeler's rule [3]_ per
+    conductor, so that different metals keep their own surface resistance). Multiply each
+    conductor's skin-effect internal impedance by its factor. Inputs are not checked (the
+    caller's geometry is valid).
     """
     a, b, d = _as_float(a, b, offset)
     if not np.any(d):
         one = np.ones(a.shape)
         return one, one
-    x = (a * a + b * b - d * d) / (2.0 * a * b)
-    s = np.sqrt(np.maximum(x * x - 1.0, 1e-300))
-    f_a = -(a * a - b * b + d * d) / (2.0 * a * b * s)
-    f_b = (b * b - a * a + d * d) / (2.0 * a * b * s)
-    return np.where(d == 0.0, 1.0, f_a), np.where(d == 0.0, 1.0, f_b)
+    n_a, n_b, _, sq = _gradient_terms(a, b, d)
+    return np.where(d == 0.0, 1.0, -n_a / sq), np.where(d == 0.0, 1.0, n_b / sq)
+
+
+def wheeler_loss_factor(a, b, offset=0.0):
+    r"""Conductor-loss factor of an offset line over the concentric one, :math:`\ge 1` [-].
+
+    .. math::
+        F = \frac{-\partial\Lambda/\partial a + \partial\Lambda/\partial b}{1/a + 1/b}
+          = \frac{F_a/a + F_b/b}{1/a + 1/b}
+
+    with the per-conductor factors of :func:`wheeler_loss_factors`; Wheeler's rule [3]_
+    applied to :math:`\Lambda` (same surface resistance on both conductors). :math:`F = 1` at
+    :math:`D = 0`. Multiply the skin-effect resistance of the concentric line by it; valid
+    where the skin depth is small against both radii (an upper bound of the increase
+    otherwise).
+    """
+    a, b, d = _as_float(a, b, offset)
+    f_a, f_b = wheeler_loss_factors(a, b, d)
+    return np.where(d == 0.0, 1.0, (f_a / a + f_b / b) / (1.0 / a + 1.0 / b))
+
+
+def characteristic_impedance_eccentric(a, b, offset, relative_permittivity):
+    r"""Lossless characteristic impedance of an eccentric coax,
+    :math:`\eta_0\Lambda/(2\pi\sqrt{\varepsilon_r})` [ohm] (see the module notes).
+
+    The same function as :func:`cablefam.physics.line.characteristic_impedance_lossless` with
+    an ``offset``, argument order kept for existing callers.
+    """
+    from cablefam.physics.line import characteristic_impedance_lossless  # line imports us
+
+    return characteristic_impedance_lossless(a, b, relative_permittivity, offset)
 
 
 def peak_field_factor(a, b, offset=0.0):
@@ -125,7 +264,9 @@ def peak_field_factor(a, b, offset=0.0):
     a, b, d = _as_float(a, b, offset)
     if not np.any(d):
         return np.ones(a.shape)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        ch = (b * b - a * a - d * d) / (2.0 * a * d)
-        g = (ch + 1.0) / np.sqrt(np.maximum(ch * ch - 1.0, 1e-300))
+    # (cosh + 1)/sinh = sqrt((1 + r)/(1 - r)) with r = 1/cosh: neither cosh nor its square,
+    # which overflow for an offset many orders of magnitude below the radii
+    with np.errstate(divide="ignore", invalid="ignore"):  # only for D >= b - a (invalid)
+        r = 2.0 * a * d / (b * b - a * a - d * d)
+        g = np.sqrt((1.0 + r) / np.maximum(1.0 - r, SQRT_ARGUMENT_FLOOR))
     return np.where(d == 0.0, 1.0, g)

@@ -11,8 +11,8 @@ from __future__ import annotations
 
 import numpy as np
 from scipy import special
-from scipy.constants import mu_0
-
+from cablefam.physics import eccentricity
+from cablefam.physics.constants import mu_0
 from cablefam.physics.skin import skin_depth
 
 
@@ -193,22 +193,51 @@ def electric_field(r, a, b, voltage):
     return np.where((r >= a) & (r <= b), e, 0.0)
 
 
-def peak_electric_field(a, b, peak_voltage):
+def _geometry_and_crowding(a, b, offset, geometry_factor):
+    """Lambda (the caller's or computed) and the peak-field factor (None when concentric)."""
+    lam = (eccentricity.geometry_factor(a, b, offset) if geometry_factor is None
+           else np.asarray(geometry_factor, dtype=float))
+    crowding = eccentricity.peak_field_factor(a, b, offset) if np.any(offset) else None
+    return lam, crowding
+
+
+def peak_electric_field(a, b, peak_voltage, offset=0.0, geometry_factor=None):
     r"""Largest field, at the centre-conductor surface: :math:`E_{max} = V/(a\ln(b/a))` [V m^-1].
+
+    Parameters
+    ----------
+    a, b : array_like
+        Centre-conductor radius and dielectric radius [m] (stranded: the effective radius).
+    peak_voltage : array_like
+        Peak voltage :math:`V` between the conductors [V].
+    offset : array_like, optional
+        Offset :math:`D` of the centre conductor [m]: the field crowds on the side nearest the
+        shield, :math:`E_{max} = g\,V/(a\Lambda)` with :math:`\Lambda` and :math:`g` of
+        :func:`cablefam.physics.eccentricity.geometry_factor` and
+        :func:`cablefam.physics.eccentricity.peak_field_factor`.
+    geometry_factor : array_like, optional
+        :math:`\Lambda` of ``a, b, offset`` when the caller has it already [-].
 
     References
     ----------
     .. [1] S. Ramo, J. R. Whinnery, T. Van Duzer, *Fields and Waves in Communication
-       Electronics*, 3rd ed., Wiley, 1994, Sec. 2.3 (the coaxial capacitor).
+       Electronics*, 3rd ed., Wiley, 1994, Sec. 2.3 (the coaxial capacitor) and Sec. 4.8
+       (two non-concentric cylinders).
     """
     a = np.asarray(a, dtype=float)
-    return np.asarray(peak_voltage, dtype=float) / (a * np.log(np.asarray(b, dtype=float) / a))
+    lam, crowding = _geometry_and_crowding(a, b, offset, geometry_factor)
+    e_max = np.asarray(peak_voltage, dtype=float) / (a * lam)
+    return e_max if crowding is None else e_max * crowding
 
 
-def max_peak_voltage(a, b, dielectric_strength, safety_factor=1.0):
+def max_peak_voltage(a, b, dielectric_strength, safety_factor=1.0, offset=0.0,
+                     geometry_factor=None):
     r"""Largest peak voltage that keeps :math:`E_{max} \le E_{bd}/k_s` [V].
 
-    .. math:: V_{max} = \frac{E_{bd}}{k_s}\,a\ln\frac{b}{a}
+    .. math:: V_{max} = \frac{E_{bd}}{k_s}\,\frac{a\Lambda}{g}
+
+    with :math:`\Lambda = \ln(b/a)` and :math:`g = 1` for a concentric line (the inverse of
+    :func:`peak_electric_field`).
 
     Parameters
     ----------
@@ -218,7 +247,11 @@ def max_peak_voltage(a, b, dielectric_strength, safety_factor=1.0):
         Breakdown field :math:`E_{bd}` of the dielectric [V m^-1].
     safety_factor : array_like, optional
         :math:`k_s \ge 1` [-].
+    offset, geometry_factor : array_like, optional
+        As in :func:`peak_electric_field`.
     """
     a = np.asarray(a, dtype=float)
-    return (np.asarray(dielectric_strength, dtype=float) / np.asarray(safety_factor, dtype=float)
-            * a * np.log(np.asarray(b, dtype=float) / a))
+    lam, crowding = _geometry_and_crowding(a, b, offset, geometry_factor)
+    v_max = (np.asarray(dielectric_strength, dtype=float) / np.asarray(safety_factor, dtype=float)
+             * a * lam)
+    return v_max if crowding is None else v_max / crowding

@@ -24,6 +24,9 @@ from functools import lru_cache
 import numpy as np
 from scipy import special
 
+from cablefam.physics.hankel_series import (directed_ratio_series,  # noqa: F401 (re-export)
+                                            hankel_asymptotic_coefficients,
+                                            hankel_coefficient_tables, horner)
 from cablefam.physics.skin import skin_depth
 
 #: Radius-to-skin-depth ratio above which the asymptotic series replaces the Bessel ratio.
@@ -40,59 +43,11 @@ _WALL_COUPLING_NEGLIGIBLE = 40.0
 _METHODS = ("auto", "exact", "asymptotic")
 
 
-def hankel_asymptotic_coefficients(order, n_terms):
-    r"""Coefficients :math:`a_k(\nu)` of the Hankel large-argument expansions.
-
-    .. math:: a_k(\nu) = \frac{(4\nu^2 - 1^2)(4\nu^2 - 3^2)\cdots(4\nu^2 - (2k-1)^2)}{k!\,8^k}
-
-    (A&S 9.2.9-9.2.10 and 9.7.1-9.7.2 in [1]_).
-
-    Parameters
-    ----------
-    order : float
-        Bessel order :math:`\nu`.
-    n_terms : int
-        Number of coefficients, :math:`k = 0 \ldots n-1`.
-
-    Returns
-    -------
-    numpy.ndarray
-        Real coefficients, shape ``(n_terms,)``.
-
-    References
-    ----------
-    .. [1] M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*, NBS, 1964.
-    """
-    mu = 4.0 * order * order
-    coeffs = np.ones(n_terms)
-    for k in range(1, n_terms):
-        coeffs[k] = coeffs[k - 1] * (mu - (2 * k - 1) ** 2) / (k * 8.0)
-    return coeffs
-
-
-@lru_cache(maxsize=None)
-def _ratio_series(n_terms):
-    """Coefficients r_k of S_0(w)/S_1(w), S_nu(w) = sum a_k(nu) w^k (power-series division)."""
-    num = hankel_asymptotic_coefficients(0.0, n_terms)
-    den = hankel_asymptotic_coefficients(1.0, n_terms)
-    r = np.zeros(n_terms)
-    for k in range(n_terms):
-        r[k] = (num[k] - np.dot(r[:k], den[k:0:-1])) / den[0]
-    return r
-
-
-@lru_cache(maxsize=None)
-def _directed_series(direction, n_terms):
-    """Real and imaginary parts of c_k = r_k * direction**k, highest power first (for polyval)."""
-    c = _ratio_series(n_terms) * complex(direction) ** np.arange(n_terms)
-    return c.real[::-1].copy(), c.imag[::-1].copy()
-
-
-def _horner(coeffs_high_first, v):
-    out = np.full_like(v, coeffs_high_first[0])
-    for c in coeffs_high_first[1:]:
-        out *= v
-        out += c
+def _complex(re, im):
+    """re + j im as one complex array, without complex arithmetic (exact)."""
+    out = np.empty(np.shape(re), dtype=complex)
+    out.real = re
+    out.imag = im
     return out
 
 
@@ -113,13 +68,48 @@ def _wire_factor_exact(u):
 
 
 def _wire_factor_asymptotic(u):
-    """Same F from the Hankel series: F = (1 + j) u/2 * sum c_k u^-k, c_k = r_k ((j - 1)/2)^k."""
-    re_c, im_c = _directed_series(complex(-0.5, 0.5), ASYMPTOTIC_TERMS)
+    """Same F from the Hankel series: F = (1 + j) u/2 * sum c_k u^-k, c_k = r_k ((j - 1)/2)^k.
+
+    Returns the real and imaginary parts (real arithmetic).
+    """
+    re_c, im_c = directed_ratio_series(complex(-0.5, 0.5), ASYMPTOTIC_TERMS)
     v = 1.0 / u
-    s_re = _horner(re_c, v)
-    s_im = _horner(im_c, v)
+    s_re = horner(re_c, v)
+    s_im = horner(im_c, v)
     half_u = 0.5 * u
-    return (half_u * (s_re - s_im)) + 1.0j * (half_u * (s_re + s_im))
+    return half_u * (s_re - s_im), half_u * (s_re + s_im)
+
+
+def wire_resistance_reactance(radius, resistivity, frequency, relative_permeability=1.0,
+                              method="auto"):
+    r"""Internal resistance and reactance of a solid round wire, as two real arrays.
+
+    The real and imaginary parts of :func:`wire_internal_impedance` (same parameters, same
+    values to the last bit), for callers that work in real arithmetic.
+
+    Returns
+    -------
+    tuple of numpy.ndarray
+        :math:`(R, X_i)` [ohm m^-1].
+    """
+    _check_method(method)
+    a, rho, f, mu_r = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (
+        radius, resistivity, frequency, relative_permeability)))
+    u = a / skin_depth(rho, f, mu_r)
+    r_dc = wire_dc_resistance(a, rho)
+    big = u >= ASYMPTOTIC_MIN_RATIO if method == "auto" else None
+    if method == "asymptotic" or (big is not None and big.all()):
+        f_re, f_im = _wire_factor_asymptotic(u)
+    else:
+        if method == "exact" or not big.any():
+            factor = _wire_factor_exact(u)
+        else:
+            factor = np.empty(u.shape, dtype=complex)
+            factor[big] = _complex(*_wire_factor_asymptotic(u[big]))
+            small = ~big
+            factor[small] = _wire_factor_exact(u[small])
+        f_re, f_im = factor.real, factor.imag
+    return r_dc * f_re, r_dc * f_im
 
 
 def wire_internal_impedance(radius, resistivity, frequency, relative_permeability=1.0,
@@ -166,23 +156,8 @@ def wire_internal_impedance(radius, resistivity, frequency, relative_permeabilit
     .. [2] M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*, NBS, 1964.
     .. [3] S. A. Schelkunoff, *Bell Syst. Tech. J.* 13 (1934) 532-579, Eq. (37).
     """
-    _check_method(method)
-    a, rho, f, mu_r = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (
-        radius, resistivity, frequency, relative_permeability)))
-    delta = skin_depth(rho, f, mu_r)
-    u = a / delta
-    r_dc = rho / (np.pi * a * a)
-    if method == "exact":
-        factor = _wire_factor_exact(u)
-    elif method == "asymptotic":
-        factor = _wire_factor_asymptotic(u)
-    else:
-        factor = np.empty(u.shape, dtype=complex)
-        big = u >= ASYMPTOTIC_MIN_RATIO
-        factor[big] = _wire_factor_asymptotic(u[big])
-        small = ~big
-        factor[small] = _wire_factor_exact(u[small])
-    return r_dc * factor
+    return _complex(*wire_resistance_reactance(radius, resistivity, frequency,
+                                               relative_permeability, method))
 
 
 # --------------------------------------------------------------------------- tube (shield)
@@ -203,27 +178,34 @@ def _tube_ratio_exact(ub, uc):
 
 
 def _tube_ratio_asymptotic_thick(ub):
-    """N/D -> K0(x)/K1(x) for a wall many skin depths thick; series c_k = r_k ((1 - j)/2)^k."""
-    re_c, im_c = _directed_series(complex(0.5, -0.5), ASYMPTOTIC_TERMS)
+    """N/D -> K0(x)/K1(x) for a wall many skin depths thick; series c_k = r_k ((1 - j)/2)^k.
+
+    Returns the real and imaginary parts (real arithmetic).
+    """
+    re_c, im_c = directed_ratio_series(complex(0.5, -0.5), ASYMPTOTIC_TERMS)
     v = 1.0 / ub
-    return _horner(re_c, v) + 1.0j * _horner(im_c, v)
+    return horner(re_c, v), horner(im_c, v)
+
+
+@lru_cache(maxsize=None)
+def _tube_series_matrix(n_terms):
+    """Rows a_k(0), a_k(0)(-1)^k, a_k(1), a_k(1)(-1)^k, a_k(1), a_k(1)(-1)^k; highest power
+    first."""
+    a0, a1, alt = hankel_coefficient_tables(n_terms)
+    return np.stack((a0, a0 * alt, a1, a1 * alt, a1, a1 * alt))[:, ::-1].copy()
 
 
 def _tube_ratio_asymptotic_general(ub, uc):
     """N/D from the Hankel series of I and K at both wall surfaces (any wall thickness)."""
-    n = ASYMPTOTIC_TERMS
-    a0 = hankel_asymptotic_coefficients(0.0, n)
-    a1 = hankel_asymptotic_coefficients(1.0, n)
-    alt = (-1.0) ** np.arange(n)
+    coeffs = _tube_series_matrix(ASYMPTOTIC_TERMS)
     x_inv = 1.0 / ((1.0 + 1.0j) * ub)
     y_inv = 1.0 / ((1.0 + 1.0j) * uc)
-
-    def series(coeffs, w):
-        return np.polyval(coeffs[::-1], w)
-
-    s0x, t0x = series(a0, x_inv), series(a0 * alt, x_inv)
-    s1x, t1x = series(a1, x_inv), series(a1 * alt, x_inv)
-    s1y, t1y = series(a1, y_inv), series(a1 * alt, y_inv)
+    # the six series at once (Horner's rule as numpy.polyval evaluates it, row by row)
+    w = np.stack((x_inv, x_inv, x_inv, x_inv, y_inv, y_inv))
+    y = w * coeffs[:, :1] + coeffs[:, 1:2]
+    for k in range(2, coeffs.shape[1]):
+        y = y * w + coeffs[:, k:k + 1]
+    s0x, t0x, s1x, t1x, s1y, t1y = y
     q = np.exp(-2.0 * (1.0 + 1.0j) * (uc - ub))
     return (q * t0x * s1y + s0x * t1y) / (s1x * t1y - q * t1x * s1y)
 
@@ -279,6 +261,22 @@ def tube_internal_impedance(inner_radius, outer_radius, resistivity, frequency,
        Electronics*, 3rd ed., Wiley, 1994, Sec. 5.5.
     .. [3] M. Abramowitz, I. A. Stegun, *Handbook of Mathematical Functions*, NBS, 1964.
     """
+    return _complex(*tube_resistance_reactance(inner_radius, outer_radius, resistivity,
+                                               frequency, relative_permeability, method))
+
+
+def tube_resistance_reactance(inner_radius, outer_radius, resistivity, frequency,
+                              relative_permeability=1.0, method="auto"):
+    r"""Internal resistance and reactance of the tubular shield, as two real arrays.
+
+    The real and imaginary parts of :func:`tube_internal_impedance` (same parameters, same
+    values to the last bit), for callers that work in real arithmetic.
+
+    Returns
+    -------
+    tuple of numpy.ndarray
+        :math:`(R, X_i)` [ohm m^-1].
+    """
     _check_method(method)
     b, c, rho, f, mu_r = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (
         inner_radius, outer_radius, resistivity, frequency, relative_permeability)))
@@ -287,18 +285,81 @@ def tube_internal_impedance(inner_radius, outer_radius, resistivity, frequency,
     uc = c / delta
     if method == "exact":
         ratio = _tube_ratio_exact(ub, uc)
+        ratio_re, ratio_im = ratio.real, ratio.imag
     else:
         if method == "asymptotic":
             big = np.ones(ub.shape, dtype=bool)
         else:
             big = ub >= ASYMPTOTIC_MIN_RATIO
         thick = big & (2.0 * (uc - ub) >= _WALL_COUPLING_NEGLIGIBLE)
-        thin = big & ~thick
-        small = ~big
-        ratio = np.empty(ub.shape, dtype=complex)
-        ratio[thick] = _tube_ratio_asymptotic_thick(ub[thick])
-        if thin.any():
-            ratio[thin] = _tube_ratio_asymptotic_general(ub[thin], uc[thin])
-        if small.any():
-            ratio[small] = _tube_ratio_exact(ub[small], uc[small])
-    return (rho / (2.0 * np.pi * b * delta)) * (1.0 + 1.0j) * ratio
+        if big.all():  # the usual case at radio frequencies: no masks on the thick walls
+            ratio_re, ratio_im = _tube_ratio_asymptotic_thick(ub)
+            thin = ~thick
+            if thin.any():  # the few walls thinner than ~20 skin depths, replaced
+                ratio_re, ratio_im = np.asarray(ratio_re), np.asarray(ratio_im)
+                ratio = _tube_ratio_asymptotic_general(ub[thin], uc[thin])
+                ratio_re[thin], ratio_im[thin] = ratio.real, ratio.imag
+        else:
+            thin = big & ~thick
+            small = ~big
+            ratio = np.empty(ub.shape, dtype=complex)
+            ratio[thick] = _complex(*_tube_ratio_asymptotic_thick(ub[thick]))
+            if thin.any():
+                ratio[thin] = _tube_ratio_asymptotic_general(ub[thin], uc[thin])
+            if small.any():
+                ratio[small] = _tube_ratio_exact(ub[small], uc[small])
+            ratio_re, ratio_im = ratio.real, ratio.imag
+    # (s (1 + j)) (ratio_re + j ratio_im), s = rho / (2 pi b delta), in real arithmetic
+    scale = rho / (2.0 * np.pi * b * delta)
+    return scale * ratio_re - scale * ratio_im, scale * ratio_im + scale * ratio_re
+
+
+# --------------------------------------------------------------------------- DC limits
+
+
+def wire_dc_resistance(radius, resistivity):
+    r"""DC resistance per unit length of a solid round wire, :math:`\rho/(\pi a^2)` [ohm m^-1].
+
+    Parameters
+    ----------
+    radius : array_like
+        Wire radius :math:`a` [m], > 0.
+    resistivity : array_like
+        Resistivity :math:`\rho` [ohm m].
+
+    Notes
+    -----
+    :math:`R = \rho/A` (clause 2.1.1 of [1]_), the low-frequency limit of
+    :func:`wire_internal_impedance`. A stranded conductor:
+    :func:`cablefam.physics.stranding.stranded_dc_resistance`.
+
+    References
+    ----------
+    .. [1] IEC 60287-1-1:2006+AMD1:2014, clause 2.1.1.
+    """
+    a = np.asarray(radius, dtype=float)
+    return np.asarray(resistivity, dtype=float) / (np.pi * a * a)
+
+
+def tube_dc_resistance(inner_radius, outer_radius, resistivity):
+    r"""DC resistance per unit length of a tube, :math:`\rho/(\pi(c^2-b^2))` [ohm m^-1].
+
+    Parameters
+    ----------
+    inner_radius, outer_radius : array_like
+        Radii :math:`b < c` of the tube [m].
+    resistivity : array_like
+        Resistivity :math:`\rho` [ohm m].
+
+    Notes
+    -----
+    :math:`R = \rho/A` (clause 2.1.1 of [1]_), the low-frequency limit of
+    :func:`tube_internal_impedance`.
+
+    References
+    ----------
+    .. [1] IEC 60287-1-1:2006+AMD1:2014, clause 2.1.1.
+    """
+    b = np.asarray(inner_radius, dtype=float)
+    c = np.asarray(outer_radius, dtype=float)
+    return np.asarray(resistivity, dtype=float) / (np.pi * (c * c - b * b))

@@ -1,4 +1,7 @@
-r"""Transmission-line parameters of a coax: R, L, G, C and what follows from them.
+r"""Transmission-line parameters of a coax: R, L, G, C and the lossless impedance.
+
+What follows from R, L, G, C for any line (propagation constant, characteristic impedance,
+attenuation split, velocity) is in :mod:`cablefam.physics.propagation`, re-exported here.
 
 Geometry symbols (used throughout :mod:`physics`): centre-conductor radius :math:`a`,
 dielectric outer radius :math:`b` (= shield inner radius), shield outer radius :math:`c`.
@@ -10,12 +13,16 @@ from __future__ import annotations
 from typing import NamedTuple
 
 import numpy as np
-from scipy.constants import epsilon_0, mu_0, speed_of_light
 
-from cablefam.physics.eccentricity import geometry_factor, wheeler_loss_factors
-from cablefam.physics.internal_impedance import tube_internal_impedance, wire_internal_impedance
-from cablefam.physics.stranding import (stranded_dc_resistance, stranded_effective_radius,
-                               stranded_skin_effect_factor)
+from cablefam.physics import eccentricity
+from cablefam.physics.constants import FREE_SPACE_IMPEDANCE, epsilon_0, mu_0
+from cablefam.physics.internal_impedance import (tube_resistance_reactance, wire_dc_resistance,
+                                                 wire_resistance_reactance)
+from cablefam.physics.propagation import (attenuation_split,  # noqa: F401 (re-exported)
+                                          characteristic_impedance,
+                                          characteristic_impedance_modulus, delay_per_metre,
+                                          propagation_constant, velocity_factor)
+from cablefam.physics.stranding import stranded_effective_radius, strand_layup
 
 
 class LineParameters(NamedTuple):
@@ -35,7 +42,57 @@ class LineParameters(NamedTuple):
     """Resistance of the shield alone [ohm m^-1]."""
 
 
-def capacitance(a, b, relative_permittivity, offset=0.0):
+class LineFixedParts(NamedTuple):
+    """Parts of the line parameters that do not depend on the conductor resistivities.
+
+    They do not change with the conductor temperatures, so a thermal iteration computes them
+    once (:func:`line_fixed_parts`) and only the internal impedances per pass
+    (:func:`conductor_impedances`). A factor is ``None`` where it is 1 for every design.
+    """
+
+    geometry_factor: np.ndarray
+    r""":math:`\Lambda` of the (effective) centre-conductor radius and :math:`b` [-]."""
+    l_external: np.ndarray
+    """External inductance [H m^-1]."""
+    c: np.ndarray
+    """Capacitance [F m^-1]."""
+    g: np.ndarray
+    """Shunt conductance [S m^-1]."""
+    inner_loss_factor: np.ndarray | None
+    """Wheeler factor of the centre conductor (offset line) [-]; None: concentric."""
+    shield_loss_factor: np.ndarray | None
+    """Wheeler factor of the shield (offset line) [-]; None: concentric."""
+    inner_skin_effect_factor: np.ndarray | None
+    """Skin-effect factor of a stranded centre conductor [-]; None: solid."""
+    inner_dc_resistance_factor: np.ndarray | None
+    """DC resistance of the strands over that of a solid wire of the overall radius [-];
+    None: solid."""
+
+
+def impedance_per_geometry_factor(relative_permittivity):
+    r"""Lossless characteristic impedance per unit of :math:`\Lambda`, :math:`K` [ohm].
+
+    .. math:: K = \frac{\eta_0}{2\pi\sqrt{\varepsilon_r}}, \qquad Z_0 = K\Lambda
+
+    with :math:`\eta_0 = \mu_0 c_0` (:data:`cablefam.physics.constants.FREE_SPACE_IMPEDANCE`)
+    and :math:`\Lambda = \ln(b/a)` or its eccentric form (Table 2.1 of [1]_).
+
+    References
+    ----------
+    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
+    """
+    return FREE_SPACE_IMPEDANCE / (2.0 * np.pi * np.sqrt(
+        np.asarray(relative_permittivity, dtype=float)))
+
+
+def _lambda(a, b, offset, geometry_factor):
+    """The caller's geometry factor, or :func:`cablefam.physics.eccentricity.geometry_factor`."""
+    if geometry_factor is None:
+        return eccentricity.geometry_factor(a, b, offset)
+    return np.asarray(geometry_factor, dtype=float)
+
+
+def capacitance(a, b, relative_permittivity, offset=0.0, geometry_factor=None):
     r"""Capacitance per unit length, :math:`C = 2\pi\varepsilon_0\varepsilon_r/\ln(b/a)` [F m^-1].
 
     Parameters
@@ -47,26 +104,30 @@ def capacitance(a, b, relative_permittivity, offset=0.0):
     offset : array_like, optional
         Eccentricity of the centre conductor [m]; :math:`\ln(b/a)` becomes the arccosh form
         of :func:`cablefam.physics.eccentricity.geometry_factor`.
+    geometry_factor : array_like, optional
+        :math:`\Lambda` of ``a, b, offset`` when the caller has it already [-] (then ``a``,
+        ``b`` and ``offset`` are not used).
 
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012, Table 2.1.
     """
     return 2.0 * np.pi * epsilon_0 * np.asarray(relative_permittivity, dtype=float) / (
-        geometry_factor(a, b, offset))
+        _lambda(a, b, offset, geometry_factor))
 
 
-def inductance_external(a, b, offset=0.0):
+def inductance_external(a, b, offset=0.0, geometry_factor=None):
     r"""External inductance per unit length, :math:`L_e = \mu_0 \ln(b/a) / (2\pi)` [H m^-1].
 
     With an ``offset`` [m] of the centre conductor, :math:`\ln(b/a)` becomes the arccosh form
-    of :func:`cablefam.physics.eccentricity.geometry_factor`.
+    of :func:`cablefam.physics.eccentricity.geometry_factor`; ``geometry_factor`` as in
+    :func:`capacitance`.
 
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012, Table 2.1.
     """
-    return mu_0 / (2.0 * np.pi) * geometry_factor(a, b, offset)
+    return mu_0 / (2.0 * np.pi) * _lambda(a, b, offset, geometry_factor)
 
 
 def conductance(capacitance_f_per_m, frequency, loss_tangent):
@@ -80,10 +141,92 @@ def conductance(capacitance_f_per_m, frequency, loss_tangent):
         loss_tangent, dtype=float)
 
 
+def line_fixed_parts(a, b, frequency, relative_permittivity, loss_tangent, offset=0.0,
+                     inner_strands=1, geometry_factor=None):
+    r"""The parts of :func:`line_parameters` that do not depend on the resistivities.
+
+    Parameters
+    ----------
+    a, b, frequency, relative_permittivity, loss_tangent, offset, inner_strands
+        As in :func:`line_parameters`.
+    geometry_factor : array_like, optional
+        :math:`\Lambda` of the effective centre-conductor radius (stranded: that of
+        :func:`cablefam.physics.stranding.stranded_effective_radius`), ``b`` and ``offset``,
+        when the caller has it already [-].
+
+    Returns
+    -------
+    LineFixedParts
+        :math:`\Lambda`, :math:`L_e`, :math:`C`, :math:`G` and the conductor factors (see
+        :func:`line_parameters` for the formulas).
+    """
+    a_ext = a
+    skin_factor = dc_factor = None
+    if np.any(np.asarray(inner_strands) != 1):
+        a_ext = stranded_effective_radius(a, inner_strands)
+        layup = strand_layup(inner_strands)
+        skin_factor, dc_factor = layup.skin_effect_factor, layup.dc_resistance_factor
+    lam = _lambda(a_ext, b, offset, geometry_factor)
+    f_inner = f_shield = None
+    if np.any(offset):
+        f_inner, f_shield = eccentricity.wheeler_loss_factors(a_ext, b, offset)
+    cap = capacitance(a_ext, b, relative_permittivity, geometry_factor=lam)
+    return LineFixedParts(
+        geometry_factor=lam, l_external=inductance_external(a_ext, b, geometry_factor=lam),
+        c=cap, g=conductance(cap, frequency, loss_tangent), inner_loss_factor=f_inner,
+        shield_loss_factor=f_shield, inner_skin_effect_factor=skin_factor,
+        inner_dc_resistance_factor=dc_factor)
+
+
+class ConductorImpedances(NamedTuple):
+    """Internal resistance and reactance of each conductor [ohm m^-1]; arrays of one shape."""
+
+    r_inner: np.ndarray
+    x_inner: np.ndarray
+    r_shield: np.ndarray
+    x_shield: np.ndarray
+
+
+def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity,
+                         fixed: LineFixedParts, inner_relative_permeability=1.0,
+                         shield_relative_permeability=1.0, method="auto"):
+    r"""Internal impedances of the centre conductor and of the shield in the line.
+
+    Parameters
+    ----------
+    a, b, c, frequency, inner_resistivity, shield_resistivity : array_like
+        As in :func:`line_parameters` [m], [Hz], [ohm m].
+    fixed : LineFixedParts
+        From :func:`line_fixed_parts` for the same designs (its conductor factors are used).
+    inner_relative_permeability, shield_relative_permeability, method : optional
+        As in :func:`line_parameters`.
+
+    Returns
+    -------
+    ConductorImpedances
+        :math:`R` and :math:`X_i` of each conductor [ohm m^-1] (real arrays), with the
+        stranding and offset factors of :func:`line_parameters` applied.
+    """
+    r_i, x_i = wire_resistance_reactance(a, inner_resistivity, frequency,
+                                         inner_relative_permeability, method=method)
+    r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
+                                         shield_relative_permeability, method=method)
+    if fixed.inner_skin_effect_factor is not None:
+        skin = fixed.inner_skin_effect_factor
+        r_dc = wire_dc_resistance(a, inner_resistivity) * fixed.inner_dc_resistance_factor
+        # solid wires (factor exactly 1) untouched: the same bits as in an all-solid population
+        r_i = np.where(skin == 1.0, r_i, np.maximum(r_i * skin, r_dc))
+        x_i = x_i * skin
+    if fixed.inner_loss_factor is not None:
+        r_i, x_i = r_i * fixed.inner_loss_factor, x_i * fixed.inner_loss_factor
+        r_s, x_s = r_s * fixed.shield_loss_factor, x_s * fixed.shield_loss_factor
+    return ConductorImpedances(r_i, x_i, r_s, x_s)
+
+
 def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                     relative_permittivity, loss_tangent, inner_relative_permeability=1.0,
                     shield_relative_permeability=1.0, method="auto", offset=0.0,
-                    inner_strands=1):
+                    inner_strands=1, geometry_factor=None):
     r"""R, L, G, C of a coax at frequency :math:`f`, with exact conductor internal impedance.
 
     Parameters
@@ -107,9 +250,12 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
     inner_strands : array_like of int, optional
         Strand count of the centre conductor (1, 7, 19, 37; ``a`` is then its overall
         radius): external L and C use the effective radius of
-        :func:`cablefam.physics.stranding.stranded_effective_radius`; the internal impedance is that of
-        a solid wire of the overall radius times the stranding skin-effect factor, its
-        resistance never below the DC resistance of the strands.
+        :func:`cablefam.physics.stranding.stranded_effective_radius`; the internal impedance
+        is that of a solid wire of the overall radius times the stranding skin-effect factor,
+        its resistance never below the DC resistance of the strands.
+    geometry_factor : array_like, optional
+        :math:`\Lambda` of the effective centre-conductor radius, ``b`` and ``offset`` when
+        the caller has it already [-] (computed here otherwise).
 
     Returns
     -------
@@ -123,7 +269,8 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                         + j\omega\frac{\mu_0}{2\pi}\ln\frac{b}{a}, \qquad
         G + j\omega C = (\tan\delta + j)\,\omega\frac{2\pi\varepsilon_0\varepsilon_r}{\ln(b/a)}
 
-    (Sec. IV of [1]_).
+    (Sec. IV of [1]_). The resistivity-free parts come from :func:`line_fixed_parts`, the
+    internal impedances from :func:`conductor_impedances`.
 
     References
     ----------
@@ -134,108 +281,26 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
          a, b, c, frequency, inner_resistivity, shield_resistivity, relative_permittivity,
          loss_tangent)))
     omega = 2.0 * np.pi * frequency
-    z_inner = wire_internal_impedance(a, inner_resistivity, frequency,
-                                      inner_relative_permeability, method=method)
-    z_shield = tube_internal_impedance(b, c, shield_resistivity, frequency,
-                                       shield_relative_permeability, method=method)
-    a_ext = a
-    if np.any(np.asarray(inner_strands) != 1):
-        a_ext = stranded_effective_radius(a, inner_strands)
-        r_dc = stranded_dc_resistance(a, inner_strands, inner_resistivity)
-        z_inner = z_inner * stranded_skin_effect_factor(inner_strands)
-        z_inner = np.maximum(z_inner.real, r_dc) + 1j * z_inner.imag
-    if np.any(offset):
-        f_inner, f_shield = wheeler_loss_factors(a_ext, b, offset)
-        z_inner = z_inner * f_inner
-        z_shield = z_shield * f_shield
-    cap = capacitance(a_ext, b, relative_permittivity, offset)
-    r_inner = z_inner.real
-    r_shield = z_shield.real
-    ind = inductance_external(a_ext, b, offset) + (z_inner.imag + z_shield.imag) / omega
-    g = conductance(cap, frequency, loss_tangent)
-    return LineParameters(r=r_inner + r_shield, l=ind, g=g, c=cap,
-                          r_inner=r_inner, r_shield=r_shield)
+    fixed = line_fixed_parts(a, b, frequency, relative_permittivity, loss_tangent, offset,
+                             inner_strands, geometry_factor)
+    z = conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity, fixed,
+                             inner_relative_permeability, shield_relative_permeability, method)
+    ind = fixed.l_external + (z.x_inner + z.x_shield) / omega
+    return LineParameters(r=z.r_inner + z.r_shield, l=ind, g=fixed.g, c=fixed.c,
+                          r_inner=z.r_inner, r_shield=z.r_shield)
 
 
-def propagation_constant(r, l, g, c, frequency):  # noqa: E741
-    r"""Propagation constant :math:`\gamma = \sqrt{(R + j\omega L)(G + j\omega C)}` [m^-1].
+def characteristic_impedance_lossless(a, b, relative_permittivity, offset=0.0,
+                                      geometry_factor=None):
+    r"""Lossless characteristic impedance :math:`\sqrt{L_e/C}` [ohm].
 
-    Returns a complex array: real part the attenuation constant [Np m^-1], imaginary part the
-    phase constant [rad m^-1] (Eq. (2.5) of [1]_).
-
-    References
-    ----------
-    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
-    """
-    omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
-    return np.sqrt((r + 1j * omega * l) * (g + 1j * omega * c))
-
-
-def characteristic_impedance(r, l, g, c, frequency):  # noqa: E741
-    r"""Complex characteristic impedance :math:`Z_0 = \sqrt{(R + j\omega L)/(G + j\omega C)}`.
-
-    Returns a complex array [ohm], computed as :math:`\gamma/(G + j\omega C)` so that the
-    branch of the root is that of :func:`propagation_constant` (Eq. (2.7) of [1]_).
-
-    References
-    ----------
-    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
-    """
-    omega = 2.0 * np.pi * np.asarray(frequency, dtype=float)
-    return propagation_constant(r, l, g, c, frequency) / (g + 1j * omega * c)
-
-
-def characteristic_impedance_lossless(a, b, relative_permittivity, offset=0.0):
-    r"""Lossless characteristic impedance :math:`\sqrt{L_e/C} = \eta_0\ln(b/a)/(2\pi\sqrt{\varepsilon_r})` [ohm].
+    :math:`\eta_0\ln(b/a)/(2\pi\sqrt{\varepsilon_r})`, i.e. :math:`K\Lambda` with
+    :math:`K` of :func:`impedance_per_geometry_factor`; ``offset`` and ``geometry_factor`` as
+    in :func:`capacitance`.
 
     References
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012, Table 2.1.
     """
-    eta_0 = mu_0 * speed_of_light
-    return eta_0 / (2.0 * np.pi * np.sqrt(np.asarray(relative_permittivity, dtype=float))) * (
-        geometry_factor(a, b, offset))
-
-
-def attenuation_split(alpha, r, g, z0_lossless):
-    r"""Split the attenuation constant into its conductor and dielectric parts.
-
-    Parameters
-    ----------
-    alpha : array_like
-        Total attenuation constant :math:`\mathrm{Re}\,\gamma` [Np m^-1] (exact RLGC value).
-    r, g : array_like
-        Series resistance [ohm m^-1] and shunt conductance [S m^-1].
-    z0_lossless : array_like
-        :math:`\sqrt{L/C}` [ohm].
-
-    Returns
-    -------
-    tuple of numpy.ndarray
-        ``(alpha_conductor, alpha_dielectric)`` [Np m^-1], summing exactly to ``alpha``.
-
-    Notes
-    -----
-    The low-loss parts :math:`\alpha_c \approx R/(2Z_0)` and :math:`\alpha_d \approx GZ_0/2`
-    (Sec. 2.7 of [1]_) set the proportions in which the exact total is shared; the split of
-    a lossy line is not unique beyond that first order.
-
-    References
-    ----------
-    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
-    """
-    a_c = np.asarray(r) / (2.0 * z0_lossless)
-    a_d = np.asarray(g) * z0_lossless / 2.0
-    total = a_c + a_d
-    share_c = np.divide(a_c, total, out=np.zeros(np.shape(total)), where=total > 0)
-    return alpha * share_c, alpha * (1.0 - share_c)
-
-
-def velocity_factor(beta, frequency):
-    r"""Phase velocity over the speed of light, :math:`v_p/c_0 = \omega/(\beta c_0)` [-]."""
-    return 2.0 * np.pi * np.asarray(frequency, dtype=float) / (np.asarray(beta) * speed_of_light)
-
-
-def delay_per_metre(beta, frequency):
-    r"""Phase delay per unit length, :math:`\beta/\omega` [s m^-1]."""
-    return np.asarray(beta) / (2.0 * np.pi * np.asarray(frequency, dtype=float))
+    return impedance_per_geometry_factor(relative_permittivity) * _lambda(a, b, offset,
+                                                                          geometry_factor)

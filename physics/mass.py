@@ -12,6 +12,8 @@ from typing import NamedTuple
 
 import numpy as np
 
+from cablefam.physics.internal_impedance import tube_dc_resistance, wire_dc_resistance
+
 
 class LayerMasses(NamedTuple):
     """Mass per unit length of each layer and in total [kg m^-1]; arrays of a common shape."""
@@ -117,9 +119,8 @@ def dc_loop_resistance(a, b, c, inner_resistivity, shield_resistivity):
     ----------
     .. [1] IEC 60287-1-1:2006+AMD1:2014, clause 2.1.1.
     """
-    a, b, c = (np.asarray(x, dtype=float) for x in (a, b, c))
-    return (np.asarray(inner_resistivity, dtype=float) / (np.pi * a * a)
-            + np.asarray(shield_resistivity, dtype=float) / _annulus_area(b, c))
+    return wire_dc_resistance(a, inner_resistivity) + tube_dc_resistance(b, c,
+                                                                           shield_resistivity)
 
 
 def outer_diameter(d):

@@ -6,9 +6,10 @@ from functools import lru_cache
 
 import numpy as np
 from scipy import special
-from scipy.constants import speed_of_light
 from scipy.interpolate import CubicSpline
 from scipy.optimize import elementwise
+
+from cablefam.physics.constants import speed_of_light
 
 
 def _j1p(x):
@@ -45,6 +46,30 @@ def _normalised_root_spline():
     """Cubic spline of k_c (a+b)/2 against ln(b/a), built once from the exact roots."""
     u = np.linspace(np.log(_TABLE_RATIO_RANGE[0]), np.log(_TABLE_RATIO_RANGE[1]), _TABLE_NODES)
     return CubicSpline(u, _solve_normalised_root(np.exp(u)))
+
+
+@lru_cache(maxsize=1)
+def _normalised_root_table():
+    """Nodes, node spacing and the (4, m) coefficients of the spline, for direct evaluation."""
+    spline = _normalised_root_spline()
+    return spline.x, spline.x[1] - spline.x[0], spline.c
+
+
+def _normalised_root_interpolated(u):
+    """The spline at ``u`` (inside its nodes), as SciPy's PPoly evaluates it, found directly.
+
+    The nodes are equally spaced, so the interval is found by division (and one correction
+    for rounding) instead of a search; the local cubic is summed in PPoly's order, so the
+    values are SciPy's to the last bit.
+    """
+    x, step, c = _normalised_root_table()
+    last = x.size - 2
+    i = np.clip(((u - x[0]) / step).astype(np.intp), 0, last)
+    i -= u < x[i]
+    i += (u >= x[i + 1]) & (i < last)
+    s = u - x[i]
+    s2 = s * s
+    return c[3][i] + c[2][i] * s + c[1][i] * s2 + c[0][i] * (s2 * s)
 
 
 def te11_cutoff_wavenumber(a, b, method="auto"):
@@ -91,9 +116,11 @@ def te11_cutoff_wavenumber(a, b, method="auto"):
     else:
         lo, hi = _TABLE_RATIO_RANGE
         inside = (p >= lo) & (p <= hi)
-        g = np.empty(p.shape)
-        g[inside] = _normalised_root_spline()(np.log(p[inside]))
-        if not inside.all():
+        if inside.all():
+            g = _normalised_root_interpolated(np.log(p))
+        else:
+            g = np.empty(p.shape)
+            g[inside] = _normalised_root_interpolated(np.log(p[inside]))
             g[~inside] = _solve_normalised_root(p[~inside])
     return 2.0 * g / (a + b)
 

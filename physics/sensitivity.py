@@ -13,13 +13,9 @@ centre conductor and the relative permittivity :math:`\varepsilon_r`. The manufa
 of each of these maps to a spread of :math:`Z_0` through these derivatives (first-order error
 propagation), and the derivatives point a design away from the edge of its tolerance band.
 
-The derivatives of :math:`\Lambda` are written with
-
-.. math::
-    \sqrt{X^2 - 1} = \frac{\sqrt{P}}{2ab}, \qquad
-    P = \left((b - a)^2 - D^2\right)\left((b + a)^2 - D^2\right)
-
-which has no cancellation as :math:`D \to 0` (then :math:`\sqrt{P} = b^2 - a^2`).
+The derivatives of :math:`\Lambda` itself are those of
+:func:`cablefam.physics.eccentricity.geometry_factor_gradient` and
+:func:`cablefam.physics.eccentricity.geometry_factor_curvature` (re-exported here).
 
 References
 ----------
@@ -36,20 +32,12 @@ from __future__ import annotations
 from typing import NamedTuple
 
 import numpy as np
-from scipy.constants import mu_0, speed_of_light
 
-from cablefam.physics.eccentricity import geometry_factor
-
-
-class GeometryGradient(NamedTuple):
-    r"""First derivatives of the geometry factor :math:`\Lambda`; arrays of a common shape."""
-
-    d_da: np.ndarray
-    r""":math:`\partial\Lambda/\partial a` [m^-1] (:math:`-1/a` at :math:`D = 0`)."""
-    d_db: np.ndarray
-    r""":math:`\partial\Lambda/\partial b` [m^-1] (:math:`1/b` at :math:`D = 0`)."""
-    d_doffset: np.ndarray
-    r""":math:`\partial\Lambda/\partial D` [m^-1] (0 at :math:`D = 0`)."""
+from cablefam.physics import _checks
+from cablefam.physics.eccentricity import (GeometryGradient, geometry_factor,  # noqa: F401
+                                           geometry_factor_curvature, geometry_factor_gradient,
+                                           geometry_factor_offset_slope)
+from cablefam.physics.line import impedance_per_geometry_factor
 
 
 class ImpedanceSensitivity(NamedTuple):
@@ -76,108 +64,6 @@ class AttenuationSensitivity(NamedTuple):
     """d(alpha_c)/d(eps_r) [Np m^-1]."""
     dalpha_doffset: np.ndarray
     """d(alpha_c)/dD [Np m^-1 per m]."""
-
-
-def _geometry(a, b, offset):
-    """Broadcast float arrays of a, b, |D|; ValueError unless 0 < a, a < b, |D| < b - a."""
-    a, b, d = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in (a, b, offset)))
-    d = np.abs(d)
-    bad = ~((a > 0.0) & (b > a) & (d < b - a))  # also catches NaN
-    if bad.any():
-        i = np.flatnonzero(bad.ravel())[0]
-        raise ValueError(
-            f"{np.count_nonzero(bad)} design(s) outside 0 < a < b and 0 <= |offset| < b - a, "
-            f"e.g. a = {float(a.ravel()[i]):.6g} m, b = {float(b.ravel()[i]):.6g} m, "
-            f"offset = {float(d.ravel()[i]):.6g} m")
-    return a, b, d
-
-
-def _permittivity(relative_permittivity):
-    eps = np.asarray(relative_permittivity, dtype=float)
-    bad = ~(eps > 0.0)
-    if bad.any():
-        raise ValueError(f"relative_permittivity must be > 0, got {float(eps[bad].ravel()[0]):.6g}")
-    return eps
-
-
-def _impedance_scale(eps):
-    """K = eta_0 / (2 pi sqrt(eps_r)) [ohm], eta_0 = mu_0 c_0 as in :mod:`cablefam.physics.line`."""
-    return mu_0 * speed_of_light / (2.0 * np.pi * np.sqrt(eps))
-
-
-def _first_and_second(a, b, d):
-    """Lambda_a, Lambda_b, Lambda_D and the second derivatives needed for alpha_c."""
-    p = ((b - a) ** 2 - d * d) * ((b + a) ** 2 - d * d)
-    sq = np.sqrt(p)
-    n_a = a * a - b * b + d * d
-    n_b = b * b - a * a + d * d
-    la = n_a / (a * sq)
-    lb = n_b / (b * sq)
-    ld = -2.0 * d / sq
-    p_a = -4.0 * a * n_b
-    p_b = 4.0 * b * (b * b - a * a - d * d)
-    p_d = -4.0 * d * (a * a + b * b - d * d)
-    laa = 2.0 / sq - n_a / (a * a * sq) - n_a * p_a / (2.0 * a * p * sq)
-    lab = -2.0 * b / (a * sq) - n_a * p_b / (2.0 * a * p * sq)
-    lad = 2.0 * d / (a * sq) - n_a * p_d / (2.0 * a * p * sq)
-    lbb = 2.0 / sq - n_b / (b * b * sq) - n_b * p_b / (2.0 * b * p * sq)
-    lbd = 2.0 * d / (b * sq) - n_b * p_d / (2.0 * b * p * sq)
-    # The concentric values, exactly (the general forms agree to rounding).
-    zero = d == 0.0
-    la = np.where(zero, -1.0 / a, la)
-    lb = np.where(zero, 1.0 / b, lb)
-    ld = np.where(zero, 0.0, ld)
-    laa = np.where(zero, 1.0 / (a * a), laa)
-    lab = np.where(zero, 0.0, lab)
-    lbb = np.where(zero, -1.0 / (b * b), lbb)
-    lad = np.where(zero, 0.0, lad)
-    lbd = np.where(zero, 0.0, lbd)
-    return la, lb, ld, laa, lab, lbb, lad, lbd
-
-
-def geometry_factor_gradient(a, b, offset=0.0):
-    r"""Derivatives of :math:`\Lambda = \operatorname{arccosh}((a^2+b^2-D^2)/(2ab))`.
-
-    Parameters
-    ----------
-    a, b : array_like
-        Centre-conductor radius and dielectric (shield inner) radius [m], ``0 < a < b``.
-    offset : array_like, optional
-        Distance :math:`D` between the axes of the two conductors [m], ``|D| < b - a``.
-        The derivative with respect to :math:`D` is taken for :math:`D \ge 0` (the sign of
-        ``offset`` is ignored: only the distance matters).
-
-    Returns
-    -------
-    GeometryGradient
-        ``d_da``, ``d_db``, ``d_doffset`` [m^-1].
-
-    Raises
-    ------
-    ValueError
-        If any design has ``a <= 0``, ``b <= a`` or ``|offset| >= b - a`` (or NaN).
-
-    Notes
-    -----
-    With :math:`P = ((b-a)^2 - D^2)((b+a)^2 - D^2)`:
-
-    .. math::
-        \frac{\partial\Lambda}{\partial a} = \frac{a^2 - b^2 + D^2}{a\sqrt{P}}, \qquad
-        \frac{\partial\Lambda}{\partial b} = \frac{b^2 - a^2 + D^2}{b\sqrt{P}}, \qquad
-        \frac{\partial\Lambda}{\partial D} = \frac{-2D}{\sqrt{P}}
-
-    from :math:`\partial\Lambda/\partial x = (\partial X/\partial x)/\sqrt{X^2 - 1}`; at
-    :math:`D = 0` they are exactly :math:`-1/a`, :math:`1/b`, 0 (the derivatives of
-    :math:`\ln(b/a)`). Geometry of the eccentric line: Sec. 4.8 of [1]_.
-
-    References
-    ----------
-    .. [1] S. Ramo, J. R. Whinnery, T. Van Duzer, *Fields and Waves in Communication
-       Electronics*, 3rd ed., Wiley, 1994.
-    """
-    a, b, d = _geometry(a, b, offset)
-    la, lb, ld, *_ = _first_and_second(a, b, d)
-    return GeometryGradient(d_da=la, d_db=lb, d_doffset=ld)
 
 
 def resistance_skin_effect_eccentric(a, b, surface_resistance_inner,
@@ -219,11 +105,10 @@ def resistance_skin_effect_eccentric(a, b, surface_resistance_inner,
     .. [1] H. A. Wheeler, "Formulas for the skin effect", *Proc. IRE* 30 (1942) 412-424.
     .. [2] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
     """
-    a, b, d = _geometry(a, b, offset)
-    la, lb, *_ = _first_and_second(a, b, d)
+    grad = geometry_factor_gradient(a, b, offset)
     rs_i = np.asarray(surface_resistance_inner, dtype=float)
     rs_s = np.asarray(surface_resistance_shield, dtype=float)
-    return (-rs_i * la + rs_s * lb) / (2.0 * np.pi)
+    return (-rs_i * grad.d_da + rs_s * grad.d_db) / (2.0 * np.pi)
 
 
 def attenuation_conductor_skin_effect(a, b, surface_resistance_inner,
@@ -263,11 +148,11 @@ def attenuation_conductor_skin_effect(a, b, surface_resistance_inner,
     ----------
     .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
     """
-    a, b, d = _geometry(a, b, offset)
-    eps = _permittivity(relative_permittivity)
+    a, b, d = _checks.coax_radii(a, b, offset)
+    eps = _checks.positive("relative_permittivity", relative_permittivity)
     r = resistance_skin_effect_eccentric(a, b, surface_resistance_inner,
                                          surface_resistance_shield, d)
-    return r / (2.0 * _impedance_scale(eps) * geometry_factor(a, b, d))
+    return r / (2.0 * impedance_per_geometry_factor(eps) * geometry_factor(a, b, d))
 
 
 def impedance_sensitivity(a, b, relative_permittivity, offset=0.0):
@@ -315,14 +200,33 @@ def impedance_sensitivity(a, b, relative_permittivity, offset=0.0):
     .. [2] S. Ramo, J. R. Whinnery, T. Van Duzer, *Fields and Waves in Communication
        Electronics*, 3rd ed., Wiley, 1994.
     """
-    a, b, d = _geometry(a, b, offset)
-    eps = _permittivity(relative_permittivity)
+    a, b, d = _checks.coax_radii(a, b, offset)
+    eps = _checks.positive("relative_permittivity", relative_permittivity)
     a, b, d, eps = np.broadcast_arrays(a, b, d, eps)
-    k = _impedance_scale(eps)
-    la, lb, ld, *_ = _first_and_second(a, b, d)
+    k = impedance_per_geometry_factor(eps)
+    grad = geometry_factor_gradient(a, b, d)
     z0 = k * geometry_factor(a, b, d)
-    return ImpedanceSensitivity(dz0_da=k * la, dz0_db=k * lb, dz0_deps=-z0 / (2.0 * eps),
-                                dz0_doffset=k * ld)
+    return ImpedanceSensitivity(dz0_da=k * grad.d_da, dz0_db=k * grad.d_db,
+                                dz0_deps=-z0 / (2.0 * eps), dz0_doffset=k * grad.d_doffset)
+
+
+def impedance_offset_sensitivity(a, b, relative_permittivity, offset=0.0):
+    r"""Derivative of the lossless :math:`Z_0` by the squared offset.
+
+    Parameters as in :func:`impedance_sensitivity` (same checks).
+
+    Returns
+    -------
+    numpy.ndarray
+        :math:`\partial Z_0/\partial(D^2) = K\,\partial\Lambda/\partial(D^2) = -K/\sqrt P`
+        [ohm m^-2] (:func:`cablefam.physics.eccentricity.geometry_factor_offset_slope`);
+        :math:`-K/(b^2-a^2)` at :math:`D = 0`, where :math:`\partial Z_0/\partial D` vanishes
+        and the offset acts through :math:`D^2` only. First-order propagation of a random
+        offset of two normal axes uses it with :math:`E\,D^2` and :math:`\mathrm{Var}\,D^2`.
+    """
+    a, b, d = _checks.coax_radii(a, b, offset)
+    eps = _checks.positive("relative_permittivity", relative_permittivity)
+    return impedance_per_geometry_factor(eps) * geometry_factor_offset_slope(a, b, d)
 
 
 def attenuation_sensitivity(a, b, surface_resistance_inner, surface_resistance_shield,
@@ -377,16 +281,17 @@ def attenuation_sensitivity(a, b, surface_resistance_inner, surface_resistance_s
     .. [1] H. A. Wheeler, "Formulas for the skin effect", *Proc. IRE* 30 (1942) 412-424.
     .. [2] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
     """
-    a, b, d = _geometry(a, b, offset)
-    eps = _permittivity(relative_permittivity)
+    a, b, d = _checks.coax_radii(a, b, offset)
+    eps = _checks.positive("relative_permittivity", relative_permittivity)
     rs_i = np.asarray(surface_resistance_inner, dtype=float)
     rs_s = np.asarray(surface_resistance_shield, dtype=float)
     a, b, d, eps, rs_i, rs_s = np.broadcast_arrays(a, b, d, eps, rs_i, rs_s)
-    la, lb, ld, laa, lab, lbb, lad, lbd = _first_and_second(a, b, d)
+    la, lb, ld = geometry_factor_gradient(a, b, d)
+    laa, lab, lbb, lad, lbd = geometry_factor_curvature(a, b, d)
     lam = geometry_factor(a, b, d)
     rho_i = rs_i / (2.0 * np.pi)
     rho_s = rs_s / (2.0 * np.pi)
-    two_k = 2.0 * _impedance_scale(eps)
+    two_k = 2.0 * impedance_per_geometry_factor(eps)
     two_z0 = two_k * lam
     r = -rho_i * la + rho_s * lb
     alpha = r / two_z0

@@ -3,7 +3,8 @@
 from __future__ import annotations
 
 import numpy as np
-from scipy.constants import mu_0
+
+from cablefam.physics.constants import mu_0
 
 
 def skin_depth(resistivity, frequency, relative_permeability=1.0):

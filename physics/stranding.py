@@ -77,6 +77,8 @@ from typing import NamedTuple
 
 import numpy as np
 
+from cablefam.physics.internal_impedance import wire_dc_resistance
+
 #: Strand counts of the supported concentric lay-ups, index = number of layers k.
 LAYUPS = (1, 7, 19, 37)
 
@@ -219,6 +221,30 @@ def strand_layup(n_strands, lay_ratio=DEFAULT_LAY_RATIO):
     )
 
 
+def stranded_metal_fraction(n_strands, lay_ratio=DEFAULT_LAY_RATIO):
+    r"""Metal per unit length of a stranded centre conductor over that of a solid one [-].
+
+    Parameters
+    ----------
+    n_strands : array_like of int
+        Strand count, one of :data:`LAYUPS`.
+    lay_ratio : array_like, optional
+        Lay length over the diameter over the layer [-].
+
+    Returns
+    -------
+    numpy.ndarray
+        :math:`\frac{n d^2}{D^2}\,t(m)`: the metal fill of the circumscribed circle
+        (``strand_layup(...).area_ratio``) times the take-up :math:`t` of
+        :func:`lay_take_up_factor` (helical strands are longer than the cable; to first
+        order in the lay angle the same factor for the mass as for the resistance). 1 for a
+        solid wire. Multiply the mass (or density) of a solid conductor of the overall radius
+        by it; the voids between the strands count as empty.
+    """
+    return strand_layup(n_strands, lay_ratio).area_ratio * lay_take_up_factor(n_strands,
+                                                                              lay_ratio)
+
+
 def stranded_effective_radius(overall_radius, n_strands):
     r"""Radius of the solid conductor with the capacitance of a stranded one [m].
 
@@ -275,8 +301,7 @@ def stranded_dc_resistance(overall_radius, n_strands, resistivity, lay_ratio=DEF
         For a strand count not in :data:`LAYUPS` or ``lay_ratio <= 0``.
     """
     factor = strand_layup(n_strands, lay_ratio).dc_resistance_factor
-    a = np.asarray(overall_radius, dtype=float)
-    return np.asarray(resistivity, dtype=float) / (np.pi * a * a) * factor
+    return wire_dc_resistance(overall_radius, resistivity) * factor
 
 
 def stranded_skin_effect_factor(n_strands, lay_ratio=DEFAULT_LAY_RATIO):

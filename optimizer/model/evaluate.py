@@ -7,12 +7,14 @@ constrains and minimises are the same strings.
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass
 
 import numpy as np
 
-from cablefam.physics import fields, line, mass, modes, stranding, thermal
-from cablefam.physics.eccentricity import geometry_factor, peak_field_factor
+from cablefam.physics import (eccentricity, fields, line, mass, modes, propagation, stranding,
+                              thermal)
+from cablefam.physics.internal_impedance import tube_dc_resistance
 from cablefam.physics.skin import skin_depth
 from cablefam.physics.units import neper_per_m_to_db_per_100m, per_m_to_per_km
 
@@ -61,27 +63,40 @@ class OperatingPoint:
     ambient_c: float | np.ndarray = 20.0
 
 
+def _float_array(value, shape):
+    """``value`` as a float array of ``shape`` that owns its data: an array computed here that
+    already is one is kept (no copy), anything else (scalars, views, broadcasts) is copied."""
+    if (isinstance(value, np.ndarray) and value.shape == shape and value.dtype == np.float64
+            and value.flags.c_contiguous and value.flags.owndata):
+        return value
+    return np.broadcast_to(value, shape).astype(float)
+
+
 def _has(table, *keys):
     return table is not None and all(k in table for k in keys)
 
 
 def electromagnetic(d: Designs, op: OperatingPoint, method="auto",
-                    reference: Designs | None = None) -> dict[str, np.ndarray]:
-    """Line parameters, impedance, attenuation, velocity, skin depths and the DC resistances.
+                    reference: Designs | None = None,
+                    geometry_factor: np.ndarray | None = None) -> dict[str, np.ndarray]:
+    r"""Line parameters, impedance, attenuation, velocity, skin depths and the DC resistances.
 
     The line is evaluated at the resistivities of ``d``; skin depths and DC resistances at
     those of ``reference`` (default ``d``), so that :func:`evaluate` can give the line at the
-    operating temperatures beside the 20 degC reference values.
+    operating temperatures beside the 20 degC reference values. ``geometry_factor``: the
+    :math:`\Lambda` of :func:`geometry_factor_of`, when the caller has it.
     """
     a, b, c = d.inner_radius, d.dielectric_radius, d.shield_radius
     f = op.frequency_hz
+    lam = geometry_factor_of(d) if geometry_factor is None else geometry_factor
     lp = line.line_parameters(a, b, c, f, d.inner["resistivity_ohm_m"],
                               d.shield["resistivity_ohm_m"],
                               d.dielectric["relative_permittivity"], d.dielectric["loss_tangent"],
                               d.inner.get("relative_permeability", 1.0),
                               d.shield.get("relative_permeability", 1.0), method=method,
-                              offset=d.eccentricity, inner_strands=d.inner_strands)
-    return _line_quantities(d, op, lp, d if reference is None else reference)
+                              offset=d.eccentricity, inner_strands=d.inner_strands,
+                              geometry_factor=lam)
+    return _line_quantities(d, op, lp, d if reference is None else reference, lam)
 
 
 def electrical_inner_radius(d: Designs):
@@ -89,6 +104,12 @@ def electrical_inner_radius(d: Designs):
     if np.any(np.asarray(d.inner_strands) != 1):
         return stranding.stranded_effective_radius(d.inner_radius, d.inner_strands)
     return d.inner_radius
+
+
+def geometry_factor_of(d: Designs):
+    """The geometry factor of the designs (electrical inner radius, offset) [-]."""
+    return eccentricity.geometry_factor(electrical_inner_radius(d), d.dielectric_radius,
+                                        d.eccentricity)
 
 
 def _reference_quantities(d: Designs, op: OperatingPoint):
@@ -102,20 +123,21 @@ def _reference_quantities(d: Designs, op: OperatingPoint):
                                           d.shield.get("relative_permeability", 1.0)),
         "dc_resistance_inner_ohm_per_m": stranding.stranded_dc_resistance(
             a, d.inner_strands, d.inner["resistivity_ohm_m"]),
-        "dc_resistance_shield_ohm_per_m": d.shield["resistivity_ohm_m"] / (np.pi * (c * c - b * b)),
+        "dc_resistance_shield_ohm_per_m": tube_dc_resistance(b, c, d.shield["resistivity_ohm_m"]),
     }
-    return {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+    return {k: _float_array(v, np.shape(a)) for k, v in out.items()}
 
 
 def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
-                     reference: Designs):
+                     reference: Designs, lam):
     a, b = d.inner_radius, d.dielectric_radius
     f = op.frequency_hz
-    gamma = line.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
-    z0 = gamma / (lp.g + 2j * np.pi * f * lp.c)
+    gamma = propagation.propagation_constant(lp.r, lp.l, lp.g, lp.c, f)
+    z0 = propagation.characteristic_impedance(lp.r, lp.l, lp.g, lp.c, f, gamma=gamma)
     z0_lossless = line.characteristic_impedance_lossless(
-        electrical_inner_radius(d), b, d.dielectric["relative_permittivity"], d.eccentricity)
-    alpha_c, alpha_d = line.attenuation_split(gamma.real, lp.r, lp.g, z0_lossless)
+        electrical_inner_radius(d), b, d.dielectric["relative_permittivity"], d.eccentricity,
+        geometry_factor=lam)
+    alpha_c, alpha_d = propagation.attenuation_split(gamma.real, lp.r, lp.g, z0_lossless)
     out = {
         "z0_ohm": np.abs(z0),
         "z0_real_ohm": z0.real,
@@ -128,10 +150,10 @@ def _line_quantities(d: Designs, op: OperatingPoint, lp: line.LineParameters,
         "attenuation_db_per_100m": neper_per_m_to_db_per_100m(gamma.real),
         "conductor_attenuation_db_per_100m": neper_per_m_to_db_per_100m(alpha_c),
         "dielectric_attenuation_db_per_100m": neper_per_m_to_db_per_100m(alpha_d),
-        "velocity_factor": line.velocity_factor(gamma.imag, f),
-        "delay_s_per_m": line.delay_per_metre(gamma.imag, f),
+        "velocity_factor": propagation.velocity_factor(gamma.imag, f),
+        "delay_s_per_m": propagation.delay_per_metre(gamma.imag, f),
     }
-    out = {k: np.broadcast_to(v, np.shape(a)).astype(float) for k, v in out.items()}
+    out = {k: _float_array(v, np.shape(a)) for k, v in out.items()}
     out.update(_reference_quantities(reference, op))
     return out
 
@@ -147,19 +169,80 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
     depths and DC resistances stay the 20 degC reference values).
     ``include_max_power=False`` skips the power rating (a root search per design), which the
     search only needs when it is an objective.
+
+    A large 1-D population is evaluated in blocks of :data:`EVALUATE_BLOCK` designs (every
+    quantity is elementwise, so the blocks change no value; arrays that stay in the processor
+    caches make it faster).
     """
+    no_jacket = bool(np.all(d.jacket_thickness == 0.0))
+    n = np.size(d.inner_radius)
+    if np.ndim(d.inner_radius) != 1 or n <= EVALUATE_BLOCK or not _blockable(d, op, n):
+        return _evaluate_block(d, op, method, include_max_power, no_jacket)
+    parts = [_evaluate_block(_take_designs(d, s, n), _take_operating_point(op, s, n), method,
+                             include_max_power, no_jacket)
+             for s in (slice(i, i + EVALUATE_BLOCK) for i in range(0, n, EVALUATE_BLOCK))]
+    return {k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
+
+
+#: Designs evaluated together by :func:`evaluate` (speed only; measured with
+#: tests/benchmarks/bench_physics.py).
+EVALUATE_BLOCK = 131072
+
+
+def _per_design(x, n):
+    """True for an array with one value per design of a 1-D population of ``n``."""
+    return isinstance(x, np.ndarray) and x.shape == (n,)
+
+
+def _blockable(d: Designs, op: OperatingPoint, n):
+    """Every array of the designs and the operating point is per design or a scalar."""
+    values = [d.inner_radius, d.dielectric_radius, d.shield_thickness, d.jacket_thickness,
+              d.eccentricity, d.inner_strands, *_fields(op)]
+    for table in (d.inner, d.shield, d.dielectric, d.jacket or {}):
+        values.extend(table.values())
+    return all(x is None or np.ndim(x) == 0 or _per_design(x, n) for x in values)
+
+
+def _take_designs(d: Designs, index, n) -> Designs:
+    def take(x):
+        return x[index] if _per_design(x, n) else x
+
+    def take_table(table):
+        return None if table is None else {k: take(v) for k, v in table.items()}
+
+    return Designs(take(d.inner_radius), take(d.dielectric_radius), take(d.shield_thickness),
+                   take(d.jacket_thickness), take_table(d.inner), take_table(d.shield),
+                   take_table(d.dielectric), take_table(d.jacket), take(d.eccentricity),
+                   take(d.inner_strands))
+
+
+def _take_operating_point(op: OperatingPoint, index, n) -> OperatingPoint:
+    return OperatingPoint(*(x[index] if _per_design(x, n) else x for x in _fields(op)))
+
+
+def _fields(op: OperatingPoint):
+    """The field values of an operating point, in order (not copied)."""
+    return [getattr(op, f.name) for f in dataclasses.fields(op)]
+
+
+def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
+                    no_jacket) -> dict[str, np.ndarray]:
+    """:func:`evaluate` of one block; ``no_jacket`` is decided on the whole population."""
     a, b = d.inner_radius, d.dielectric_radius
     c, rd = d.shield_radius, d.outer_radius
     diel = d.dielectric
-    no_jacket = bool(np.all(d.jacket_thickness == 0.0))
     jacket = d.jacket if d.jacket is not None else ({} if no_jacket else None)
     thermal_ok = (_has(d.inner, "temperature_coefficient_per_k")
                   and _has(d.shield, "temperature_coefficient_per_k")
                   and _has(diel, "thermal_resistivity_k_m_per_w")
                   and (no_jacket or _has(jacket, "thermal_resistivity_k_m_per_w")))
-    common = None
+    # the geometry factor of the electrical radius (stranded: effective; offset: arccosh form),
+    # computed once and handed to every function that needs it
+    a_el = electrical_inner_radius(d)
+    lam = eccentricity.geometry_factor(a_el, b, d.eccentricity)
+    inputs = None
     if thermal_ok:
-        common = dict(
+        inputs = thermal.CoaxThermalInputs(
             a=a, b=b, c=c, d=rd, frequency=op.frequency_hz, ambient_c=op.ambient_c,
             inner_resistivity_20c=d.inner["resistivity_ohm_m"],
             inner_temperature_coefficient=d.inner["temperature_coefficient_per_k"],
@@ -171,11 +254,11 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
             jacket_thermal_resistivity=jacket.get("thermal_resistivity_k_m_per_w", 1.0),
             inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
             shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
-            offset=d.eccentricity, inner_strands=d.inner_strands,
+            offset=d.eccentricity, inner_strands=d.inner_strands, geometry_factor=lam,
         )
     state = None
     if thermal_ok and op.power_w is not None:
-        state = thermal.coax_thermal_state(power=op.power_w, **common)
+        state = thermal.steady_state(inputs, op.power_w)
         # the line at the operating temperatures of the two conductors
         hot = Designs(
             a, b, d.shield_thickness, d.jacket_thickness,
@@ -187,25 +270,22 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
                 np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
             dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
             inner_strands=d.inner_strands)
-        out = electromagnetic(hot, op, method, reference=d)
+        out = electromagnetic(hot, op, method, reference=d, geometry_factor=lam)
     else:
-        out = electromagnetic(d, op, method)
-    a_el = electrical_inner_radius(d)
+        out = electromagnetic(d, op, method, geometry_factor=lam)
     out["outer_diameter_m"] = mass.outer_diameter(rd) + 0.0 * a
     out["te11_cutoff_hz"] = modes.te11_cutoff_frequency(a_el, b, diel["relative_permittivity"])
     out["te11_cutoff_approx_hz"] = modes.te11_cutoff_frequency_approx(
         a_el, b, diel["relative_permittivity"])
     # an offset centre conductor: arccosh geometry factor and the field crowding on its near side
     # (stranded: the smooth conductor of the effective radius; crowns of strands not modelled)
-    lam = geometry_factor(a_el, b, d.eccentricity)
-    crowding = peak_field_factor(a_el, b, d.eccentricity)
     if op.peak_voltage_v is not None:
-        out["peak_e_field_v_per_m"] = fields.peak_electric_field(a_el, b, op.peak_voltage_v) * (
-            np.log(b / a_el) / lam * crowding)
+        out["peak_e_field_v_per_m"] = fields.peak_electric_field(
+            a_el, b, op.peak_voltage_v, offset=d.eccentricity, geometry_factor=lam)
     if "dielectric_strength_v_per_m" in diel:
         out["max_peak_voltage_v"] = fields.max_peak_voltage(
-            a_el, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor) * (
-            lam / np.log(b / a_el) / crowding)
+            a_el, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor,
+            offset=d.eccentricity, geometry_factor=lam)
     out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(
         out["dc_resistance_inner_ohm_per_m"] + out["dc_resistance_shield_ohm_per_m"])
 
@@ -216,8 +296,7 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
         # taken as dielectric-free; their small share of dielectric mass is not counted)
         metal_share = 1.0
         if np.any(np.asarray(d.inner_strands) != 1):
-            lay = stranding.strand_layup(d.inner_strands)
-            metal_share = lay.area_ratio * stranding.lay_take_up_factor(d.inner_strands)
+            metal_share = stranding.stranded_metal_fraction(d.inner_strands)
         masses = mass.layer_masses(a, b, c, rd, d.inner["density_kg_per_m3"] * metal_share,
                                    diel["density_kg_per_m3"], d.shield["density_kg_per_m3"],
                                    jacket.get("density_kg_per_m3", 0.0))
@@ -240,7 +319,5 @@ def evaluate(d: Designs, op: OperatingPoint, method="auto",
         })
     if thermal_ok and include_max_power and "max_temperature_c" in diel:
         jacket_max = jacket.get("max_temperature_c") if not no_jacket else None
-        out["max_power_w"] = thermal.max_power(
-            dielectric_max_temperature_c=diel["max_temperature_c"],
-            jacket_max_temperature_c=jacket_max, **common)
+        out["max_power_w"] = thermal.power_rating(inputs, diel["max_temperature_c"], jacket_max)
     return out

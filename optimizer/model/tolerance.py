@@ -22,12 +22,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
-from scipy.constants import mu_0, speed_of_light
 from scipy.special import ndtr
 
-from cablefam.physics.eccentricity import geometry_factor
+from cablefam.physics.line import characteristic_impedance_lossless
+from cablefam.physics.sensitivity import impedance_offset_sensitivity, impedance_sensitivity
 
-_ETA_0 = mu_0 * speed_of_light
 #: Standard deviations of a uniform distribution on [-w, w] per unit w.
 _UNIFORM_SD = 1.0 / np.sqrt(3.0)
 
@@ -84,7 +83,7 @@ def impedance_samples(a, b, relative_permittivity, spread: Spread, draws, z0_sca
     aa_s = np.where(ok, aa, 1.0)
     bb_s = np.where(ok, bb, 2.0)
     off_s = np.where(ok, offset, 0.0)
-    z = _ETA_0 / (2.0 * np.pi * np.sqrt(np.maximum(ee, 1.0))) * geometry_factor(aa_s, bb_s, off_s)
+    z = characteristic_impedance_lossless(aa_s, bb_s, np.maximum(ee, 1.0), off_s)
     return np.where(ok, z * np.asarray(z0_scale, dtype=float).reshape(-1, 1), np.inf)
 
 
@@ -106,22 +105,25 @@ def impedance_mean_sd_analytic(a, b, relative_permittivity, spread: Spread, z0_s
     r"""Mean and standard deviation of the impedance from first-order propagation [ohm].
 
     .. math::
-        \sigma_Z^2 = \left(\frac{K}{a}\sigma_a\right)^2 + \left(\frac{K}{b}\sigma_b\right)^2
-                     + \left(\frac{Z}{2}\sigma_\varepsilon\right)^2
-                     + \left(\frac{K}{b^2-a^2}\right)^2 4\sigma_e^4, \qquad
-        \bar Z = Z - \frac{2K\sigma_e^2}{b^2-a^2}
+        \sigma_Z^2 = \left(Z_a\sigma_a\right)^2 + \left(Z_b\sigma_b\right)^2
+                     + \left(Z_\varepsilon\varepsilon_r\sigma_\varepsilon\right)^2
+                     + Z_{D^2}^2\,\mathrm{Var}\,D^2, \qquad
+        \bar Z = Z + Z_{D^2}\,E\,D^2
 
-    with :math:`K = \eta_0/(2\pi\sqrt{\varepsilon_r})`, :math:`\sigma_\varepsilon` relative,
-    and the offset :math:`D^2 = X^2 + Y^2` of two normal axes (:math:`E D^2 = 2\sigma_e^2`,
-    :math:`\mathrm{Var}\,D^2 = 4\sigma_e^4`) entering through
-    :math:`\partial\Lambda/\partial(D^2) = -1/(b^2-a^2)` at :math:`D = 0`.
+    with the derivatives of the lossless impedance at the nominal (concentric) design from
+    :mod:`cablefam.physics.sensitivity` (:math:`Z_a = -K/a`, :math:`Z_b = K/b`,
+    :math:`Z_\varepsilon = -Z/(2\varepsilon_r)`, :math:`Z_{D^2} = -K/(b^2-a^2)`,
+    :math:`K = \eta_0/(2\pi\sqrt{\varepsilon_r})`), :math:`\sigma_\varepsilon` relative, and
+    the offset :math:`D^2 = X^2 + Y^2` of two normal axes (:math:`E D^2 = 2\sigma_e^2`,
+    :math:`\mathrm{Var}\,D^2 = 4\sigma_e^4`). All scaled by ``z0_scale``.
     """
     a = np.asarray(a, dtype=float)
     b = np.asarray(b, dtype=float)
     eps = np.asarray(relative_permittivity, dtype=float)
     scale = np.asarray(z0_scale, dtype=float)
-    k = _ETA_0 / (2.0 * np.pi * np.sqrt(eps)) * scale
-    z = k * np.log(b / a)
+    z = characteristic_impedance_lossless(a, b, eps) * scale
+    dz = impedance_sensitivity(a, b, eps)
+    g = -impedance_offset_sensitivity(a, b, eps) * scale  # K / (b^2 - a^2)
     se = spread.sd("eccentricity_m")
     if "eccentricity_m" in spread.uniform:  # uniform disc of radius w: E D^2 = w^2/2
         mean_d2 = 0.5 * spread.eccentricity_m ** 2
@@ -129,9 +131,10 @@ def impedance_mean_sd_analytic(a, b, relative_permittivity, spread: Spread, z0_s
     else:
         mean_d2 = 2.0 * se ** 2
         var_d2 = 4.0 * se ** 4
-    g = k / (b * b - a * a)
-    var = ((k / a * spread.sd("inner_radius_m")) ** 2 + (k / b * spread.sd("dielectric_radius_m")) ** 2
-           + (0.5 * z * spread.sd("relative_permittivity")) ** 2 + g * g * var_d2)
+    var = ((dz.dz0_da * scale * spread.sd("inner_radius_m")) ** 2
+           + (dz.dz0_db * scale * spread.sd("dielectric_radius_m")) ** 2
+           + (dz.dz0_deps * eps * scale * spread.sd("relative_permittivity")) ** 2
+           + g * g * var_d2)
     return z - g * mean_d2, np.sqrt(var)
 
 

@@ -21,7 +21,7 @@ from __future__ import annotations
 import numpy as np
 
 from cablefam.physics import line
-from cablefam.physics.constants import FREE_SPACE_IMPEDANCE_OHM
+from cablefam.physics.constants import FREE_SPACE_IMPEDANCE
 
 #: Share of the tolerance band the impedance offset spans.
 OFFSET_SPAN = 0.95
@@ -36,7 +36,7 @@ def target_impedance(nominal_ohm, tolerance_ohm, offset):
 
 def impedance_slope(relative_permittivity):
     """d|Z0|/d ln(b) of the concentric lossless line, eta_0 / (2 pi sqrt(eps_r)) [ohm]."""
-    return FREE_SPACE_IMPEDANCE_OHM / (2.0 * np.pi * np.sqrt(relative_permittivity))
+    return FREE_SPACE_IMPEDANCE / (2.0 * np.pi * np.sqrt(relative_permittivity))
 
 
 def dielectric_radius_lossless(electrical_inner_radius, relative_permittivity, z0_ohm):

@@ -10,6 +10,7 @@ from cablefam.physics.sensitivity import (
     attenuation_conductor_skin_effect,
     attenuation_sensitivity,
     geometry_factor_gradient,
+    impedance_offset_sensitivity,
     impedance_sensitivity,
     resistance_skin_effect_eccentric,
 )
@@ -51,6 +52,28 @@ def test_impedance_derivatives_match_finite_differences():
         s.dz0_doffset[off],
         central(lambda x: z0(A[off], B[off], x, EPS[off]), D[off], h[off]), rtol=1e-8)
     np.testing.assert_array_equal(s.dz0_doffset[~off], 0.0)
+
+
+def test_offset_sensitivity_matches_finite_differences_in_offset_squared():
+    # Z0 depends on the offset through D^2 only; central differences in q = D^2 of
+    # characteristic_impedance_eccentric, step 1e-6 q: truncation ~ 1e-12, rounding ~ 1e-10
+    # relative -> rtol 1e-7.
+    off = D > 0
+    q = D[off] ** 2
+    h = 1e-6 * q
+    z0 = characteristic_impedance_eccentric
+    fd = central(lambda x: z0(A[off], B[off], np.sqrt(x), EPS[off]), q, h)
+    np.testing.assert_allclose(impedance_offset_sensitivity(A, B, EPS, D)[off], fd, rtol=1e-7)
+    # At D = 0 it is -K / (b^2 - a^2), from Lambda = ln(b/a) - D^2/(b^2 - a^2) + O(D^4)
+    # (derived in tests/physics/test_eccentricity.py); rtol 1e-15, rounding only.
+    a, b, eps = A[~off], B[~off], EPS[~off]
+    k = ETA_0 / (2.0 * np.pi * np.sqrt(eps))
+    np.testing.assert_allclose(impedance_offset_sensitivity(a, b, eps), -k / (b * b - a * a),
+                               rtol=1e-15)
+    # ... and the one-sided difference from D = 0 agrees to O(D^2) (rtol 1e-5).
+    q0 = 1e-6 * (b - a) ** 2
+    np.testing.assert_allclose((z0(a, b, np.sqrt(q0), eps) - z0(a, b, 0.0, eps)) / q0,
+                               -k / (b * b - a * a), rtol=1e-5)
 
 
 def test_impedance_derivatives_concentric_values():
