@@ -30,7 +30,7 @@ from typing import NamedTuple
 import numpy as np
 
 from cablefam.physics import _checks
-from cablefam.physics.constants import SQRT_ARGUMENT_FLOOR
+from cablefam.physics.constants import FREE_SPACE_IMPEDANCE, SQRT_ARGUMENT_FLOOR
 
 
 class GeometryGradient(NamedTuple):
@@ -237,6 +237,22 @@ def wheeler_loss_factor(a, b, offset=0.0):
     return np.where(d == 0.0, 1.0, (f_a / a + f_b / b) / (1.0 / a + 1.0 / b))
 
 
+def impedance_per_geometry_factor(relative_permittivity):
+    r"""Lossless characteristic impedance per unit of :math:`\Lambda`, :math:`K` [ohm].
+
+    .. math:: K = \frac{\eta_0}{2\pi\sqrt{\varepsilon_r}}, \qquad Z_0 = K\Lambda
+
+    with :math:`\eta_0 = \mu_0 c_0` (:data:`cablefam.physics.constants.FREE_SPACE_IMPEDANCE`)
+    and :math:`\Lambda = \ln(b/a)` or its eccentric form (Table 2.1 of [1]_).
+
+    References
+    ----------
+    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
+    """
+    return FREE_SPACE_IMPEDANCE / (2.0 * np.pi * np.sqrt(
+        np.asarray(relative_permittivity, dtype=float)))
+
+
 def characteristic_impedance_eccentric(a, b, offset, relative_permittivity):
     r"""Lossless characteristic impedance of an eccentric coax,
     :math:`\eta_0\Lambda/(2\pi\sqrt{\varepsilon_r})` [ohm] (see the module notes).
@@ -244,9 +260,7 @@ def characteristic_impedance_eccentric(a, b, offset, relative_permittivity):
     The same function as :func:`cablefam.physics.line.characteristic_impedance_lossless` with
     an ``offset``, argument order kept for existing callers.
     """
-    from cablefam.physics.line import characteristic_impedance_lossless  # line imports us
-
-    return characteristic_impedance_lossless(a, b, relative_permittivity, offset)
+    return impedance_per_geometry_factor(relative_permittivity) * geometry_factor(a, b, offset)
 
 
 def peak_field_factor(a, b, offset=0.0):

@@ -15,7 +15,8 @@ from typing import NamedTuple
 import numpy as np
 
 from cablefam.physics import eccentricity
-from cablefam.physics.constants import FREE_SPACE_IMPEDANCE, epsilon_0, mu_0
+from cablefam.physics.eccentricity import impedance_per_geometry_factor  # noqa: F401 (re-export)
+from cablefam.physics.constants import epsilon_0, mu_0
 from cablefam.physics.internal_impedance import (tube_resistance_reactance, wire_dc_resistance,
                                                  wire_resistance_reactance)
 from cablefam.physics.propagation import (attenuation_split,  # noqa: F401 (re-exported)
@@ -67,22 +68,6 @@ class LineFixedParts(NamedTuple):
     inner_dc_resistance_factor: np.ndarray | None
     """DC resistance of the strands over that of a solid wire of the overall radius [-];
     None: solid."""
-
-
-def impedance_per_geometry_factor(relative_permittivity):
-    r"""Lossless characteristic impedance per unit of :math:`\Lambda`, :math:`K` [ohm].
-
-    .. math:: K = \frac{\eta_0}{2\pi\sqrt{\varepsilon_r}}, \qquad Z_0 = K\Lambda
-
-    with :math:`\eta_0 = \mu_0 c_0` (:data:`cablefam.physics.constants.FREE_SPACE_IMPEDANCE`)
-    and :math:`\Lambda = \ln(b/a)` or its eccentric form (Table 2.1 of [1]_).
-
-    References
-    ----------
-    .. [1] D. M. Pozar, *Microwave Engineering*, 4th ed., Wiley, 2012.
-    """
-    return FREE_SPACE_IMPEDANCE / (2.0 * np.pi * np.sqrt(
-        np.asarray(relative_permittivity, dtype=float)))
 
 
 def _lambda(a, b, offset, geometry_factor):

@@ -5,14 +5,12 @@ from __future__ import annotations
 import hashlib
 import platform
 from importlib import metadata
-from typing import TYPE_CHECKING
 
 from cablefam.optimizer.model.objectives import resolutions
 from cablefam.optimizer.search.budget import task_budget
 
-if TYPE_CHECKING:  # annotations only
-    from cablefam.optimizer.batch.sweep import SweepSettings
-    from cablefam.optimizer.inputs.sweep_spec import Sweep
+from cablefam.optimizer.batch.settings import SweepSettings
+from cablefam.optimizer.inputs.sweep_spec import Sweep
 
 _PACKAGES = ("cablefam", "numpy", "scipy", "pymoo", "pandas", "pyarrow", "pydantic")
 
@@ -47,7 +45,7 @@ def front_provenance(sweep: Sweep, settings: SweepSettings, counts: dict) -> dic
         "population": settings.population,
         "objectives": list(sweep.spec.search.objectives),
         "evaluations_per_task": task_budget(settings.population, settings.generations,
-                                            sweep.spec.search.evaluations_per_task).total,
+                                            settings.evaluations_per_task).total,
         "resolution": dict(zip(sweep.spec.search.objectives, resolutions(
             sweep.spec.search.objectives, sweep.spec.search.resolution).tolist())),
         "members": [m.model_dump() for m in sweep.spec.member],
@@ -65,4 +63,5 @@ def run_state(sweep: Sweep, settings: SweepSettings) -> dict:
                          for c in sweep.catalogs],
             "settings": {"seed": settings.seed, "generations": settings.generations,
                          "population": settings.population,
-                         "record_evaluated": settings.record_evaluated}}
+                         "record_evaluated": settings.record_evaluated,
+                         "evaluations_per_task": settings.evaluations_per_task}}

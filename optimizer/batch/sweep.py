@@ -12,13 +12,14 @@ from __future__ import annotations
 import json
 import shutil
 import time
-from dataclasses import dataclass, replace
+from dataclasses import replace
 from datetime import datetime, timezone
 from pathlib import Path
 
 from cablefam.optimizer.atomic import write_text_atomic
 from cablefam.optimizer.batch.assemble import write_outputs
 from cablefam.optimizer.batch.provenance import run_state, sha256_text
+from cablefam.optimizer.batch.settings import SweepSettings
 from cablefam.optimizer.batch.task_store import TaskStore
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.inputs.sweep_spec import Sweep
@@ -26,16 +27,6 @@ from cablefam.optimizer.run_folder.files import (EVALUATED_FILE, FRONT_FILE, RUN
                                                  STATE_FILE, read_json)
 from cablefam.optimizer.search.budget import MIN_DENSE_EVALUATIONS
 from cablefam.optimizer.search.task import TaskResult
-
-
-@dataclass(frozen=True)
-class SweepSettings:
-    """Effective settings of a run: the sweep file's, with command-line overrides."""
-
-    seed: int
-    generations: int
-    population: int
-    record_evaluated: bool = False
 
 
 
@@ -96,13 +87,16 @@ def prepare_run_folder(sweep: Sweep, out_dir: Path, overwrite: bool, settings: S
     return run_dir
 
 
-def _settings(sweep: Sweep, seed, generations, population, record_evaluated) -> SweepSettings:
+def _settings(sweep: Sweep, seed, generations, population, record_evaluated,
+              evaluations_per_task=None) -> SweepSettings:
     spec = sweep.spec
     settings = SweepSettings(
         seed=spec.seed if seed is None else int(seed),
         generations=spec.search.generations if generations is None else int(generations),
         population=spec.search.population if population is None else int(population),
-        record_evaluated=record_evaluated)
+        record_evaluated=record_evaluated,
+        evaluations_per_task=(spec.search.evaluations_per_task if evaluations_per_task is None
+                              else int(evaluations_per_task)))
     if settings.generations < 1 or settings.population < 4:
         raise InputError(f"generations = {settings.generations}, population = "
                          f"{settings.population}: need generations >= 1 and population >= 4")
@@ -112,7 +106,7 @@ def _settings(sweep: Sweep, seed, generations, population, record_evaluated) -> 
 
 def check_budget(sweep: Sweep, settings: SweepSettings) -> None:
     """The evaluation budget must leave room for the dense stage before the genetic one."""
-    given = sweep.spec.search.evaluations_per_task
+    given = settings.evaluations_per_task
     genetic = settings.population * settings.generations
     if given is not None and given < genetic + MIN_DENSE_EVALUATIONS:
         raise InputError(f"{sweep.path}: search.evaluations_per_task = {given}: must be at "
@@ -124,7 +118,7 @@ def check_budget(sweep: Sweep, settings: SweepSettings) -> None:
 def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, population=None,
               record_evaluated=False, overwrite=False, progress=None, resume=False,
               force=False, workers=1, scheduler=None, checkpoint_every=None,
-              checkpoint_seconds=30.0, time_budget_s=None) -> Path:
+              checkpoint_seconds=30.0, time_budget_s=None, evaluations_per_task=None) -> Path:
     """Run every member x catalog task of ``sweep`` and write the run folder; return its path.
 
     Finished tasks are stored at once under ``tasks/``; with ``resume`` they are not
@@ -139,7 +133,8 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
     from cablefam.optimizer.search.task import TaskInterrupted
     from cablefam.optimizer.inputs.sweep_spec import sweep_payload
 
-    settings = _settings(sweep, seed, generations, population, record_evaluated)
+    settings = _settings(sweep, seed, generations, population, record_evaluated,
+                         evaluations_per_task)
     run_dir = Path(out_dir) / sweep.spec.name
     if resume and (run_dir / STATE_FILE).exists():
         state = read_run_state(run_dir)

@@ -40,12 +40,14 @@ class TaskSpec:
     checkpoint_seconds: float
     time_share_s: float | None = None
     """Wall-clock seconds of this task's share of a time budget (None: run the budget)."""
+    evaluations_per_task: int | None = None
 
 
 def make_task_specs(sweep, settings, run_dir, checkpoint_every, checkpoint_seconds):
     return [TaskSpec(m.name, c.name, task_seed(settings.seed, m.name, c.name),
                      settings.generations, settings.population, settings.record_evaluated,
-                     str(run_dir), checkpoint_every, checkpoint_seconds)
+                     str(run_dir), checkpoint_every, checkpoint_seconds,
+                     evaluations_per_task=settings.evaluations_per_task)
             for m in sweep.spec.member for c in sweep.catalogs]
 
 
@@ -66,6 +68,7 @@ def execute_task(payload_json: str, spec: TaskSpec, progress=None, stop=None) ->
                       spec.population, spec.record_evaluated, progress=progress, store=store,
                       checkpoint_every=spec.checkpoint_every,
                       checkpoint_seconds=spec.checkpoint_seconds, stop=stop,
+                      evaluations_per_task=spec.evaluations_per_task,
                       deadline=None if spec.time_share_s is None
                       else time.perf_counter() + spec.time_share_s)
     if store is not None:

@@ -36,6 +36,8 @@ def sweep_command(
         "--generations", metavar="N", help="Override search.generations.")] = None,
     population: Annotated[Optional[int], typer.Option(
         "--population", metavar="N", help="Override search.population.")] = None,
+    evaluations: Annotated[Optional[int], typer.Option(
+        "--evaluations", metavar="N", help="Override search.evaluations_per_task.")] = None,
     evaluated: Annotated[bool, typer.Option(
         "--evaluated", help="Also write every evaluated design to evaluated.parquet.")] = False,
     overwrite: Annotated[bool, typer.Option(
@@ -65,7 +67,8 @@ def sweep_command(
             spec, out, seed=seed, generations=generations, population=population,
             record_evaluated=evaluated, overwrite=overwrite, resume=resume, force=force,
             workers=n_workers, scheduler=scheduler, checkpoint_every=checkpoint_every,
-            time_budget_s=_seconds(time_budget), progress=_progress(quiet)))
+            time_budget_s=_seconds(time_budget), evaluations_per_task=evaluations,
+            progress=_progress(quiet)))
     _report_run(run_dir, spec.spec.member[0].name)
 
 

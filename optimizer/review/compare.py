@@ -27,7 +27,7 @@ import pandas as pd
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix
 from cablefam.optimizer.run_folder.reader import read_front
-from cablefam.optimizer.review.text_table import format_table
+from cablefam.optimizer.text_table import format_table
 from cablefam.optimizer.review import tradeoff
 
 #: Reference point of the hypervolume, per objective, in the union-normalized space.

@@ -33,7 +33,7 @@ from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS
 from cablefam.optimizer.model.quantities import display
 from cablefam.optimizer.model.slots import SLOT_NAMES
 from cablefam.optimizer.review import tradeoff
-from cablefam.optimizer.review.text_table import format_table
+from cablefam.optimizer.text_table import format_table
 from cablefam.optimizer.run_folder.reader import read_front
 
 METHODS = ("knee", "weights", "nearest")

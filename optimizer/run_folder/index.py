@@ -8,7 +8,7 @@ from pathlib import Path
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.run_folder.reader import read_run_info
 from cablefam.optimizer.run_folder.files import RUN_FILE
-from cablefam.optimizer.review.text_table import format_table
+from cablefam.optimizer.text_table import format_table
 
 
 @dataclass(frozen=True)

@@ -152,7 +152,8 @@ def run_dense_stage(problem: RecordingProblem, budget: Budget, seed: int, stop=N
 def run_task(sweep: Sweep, member: MemberSpec, catalog_name: str, seed: int, generations: int,
              population: int, record_evaluated: bool = False, progress=None, store=None,
              checkpoint_every: int | None = None, checkpoint_seconds: float = 30.0,
-             stop=None, deadline: float | None = None) -> TaskResult:
+             stop=None, deadline: float | None = None,
+             evaluations_per_task: int | None = None) -> TaskResult:
     """Run one member x catalog search and return its feasible front (epsilon archive).
 
     With a task store (:class:`cablefam.optimizer.batch.task_store.TaskStore`), the task
@@ -161,12 +162,14 @@ def run_task(sweep: Sweep, member: MemberSpec, catalog_name: str, seed: int, gen
     of work). When ``stop`` (an object with ``is_set()``) becomes set, the task writes a
     checkpoint and raises :class:`TaskInterrupted`. With ``deadline`` (a
     ``time.perf_counter()`` value) the genetic stage runs until then instead of for
-    ``generations``.
+    ``generations``. ``evaluations_per_task`` overrides the sweep file's.
     """
     t_start = time.perf_counter()
     problem = RecordingProblem(sweep, member, catalog_name, record_evaluated=record_evaluated,
                                seed=seed)
-    budget = task_budget(population, generations, sweep.spec.search.evaluations_per_task)
+    if evaluations_per_task is None:
+        evaluations_per_task = sweep.spec.search.evaluations_per_task
+    budget = task_budget(population, generations, evaluations_per_task)
     state = store.read_checkpoint() if store is not None else None
     seconds_before = 0.0
     report = _Reporter(progress, member.name, catalog_name, budget, problem, t_start)

@@ -8,8 +8,8 @@ non-dominated sorting, and the feasible archive) and the writing of the run fold
 re-evaluation with ``max_power``, Parquet, JSON).
 
 Part 2 takes one member x catalog task of the demo with the materials fixed (so that only the
-four radii are free), runs the same search generation by generation, and compares the
-hypervolume of its feasible archive with that of a dense brute-force grid evaluated with the same
+four radii are free), runs the staged search at a series of budgets (evaluations per task), and
+compares the hypervolume of its front with that of a dense brute-force grid evaluated with the same
 physics (``MemberProblem.evaluate_designs``), with one shared normalization and reference point
 (``pymoo.indicators.hv.HV``). The last line printed is one JSON object with the figures.
 
@@ -37,6 +37,7 @@ import pstats  # noqa: E402
 import statistics  # noqa: E402
 import tempfile  # noqa: E402
 import time  # noqa: E402
+from dataclasses import replace  # noqa: E402
 from pathlib import Path  # noqa: E402
 
 import numpy as np  # noqa: E402
@@ -48,8 +49,7 @@ from scipy.constants import mu_0, speed_of_light  # noqa: E402
 from cablefam.optimizer.inputs.materials import read_toml  # noqa: E402
 from cablefam.optimizer.model.objectives import objective_matrix  # noqa: E402
 from cablefam.optimizer.search.problem import MemberProblem  # noqa: E402
-from cablefam.optimizer.search.task import (_RecordingProblem, make_algorithm, run_task,  # noqa: E402
-                              task_seed)
+from cablefam.optimizer.search.task import RecordingProblem, run_task, task_seed  # noqa: E402
 from cablefam.optimizer.batch.sweep import run_sweep  # noqa: E402
 from cablefam.optimizer.run_folder.files import RUN_FILE  # noqa: E402
 from cablefam.optimizer.inputs.sweep_spec import demo_sweep_path, load_sweep, parse_sweep  # noqa: E402
@@ -187,24 +187,27 @@ def reference_front(problem: MemberProblem, coarse, dense, widening, chunk):
     return non_dominated(np.vstack([f1, f2])), info
 
 
-def search_curve(sweep, member, catalog_name, population, generations, seed):
-    """Feasible archive objectives and evaluation counts at each generation in ``generations``."""
-    problem = _RecordingProblem(sweep, member, catalog_name, seed=seed)
-    algorithm = make_algorithm(problem, population, seed)
-    algorithm.setup(problem, termination=("n_gen", max(generations)), seed=seed, verbose=False)
-    snapshots, gen = {}, 0
-    while algorithm.has_next():
-        algorithm.next()
-        gen += 1
-        if gen in generations:
-            snapshots[gen] = (problem.n_evaluations, problem.archive.f.copy())
+def search_curve(sweep, member, catalog_name, population, budgets, seed):
+    """Front objectives, evaluation counts and seconds of the staged search at each budget."""
+    snapshots = {}
+    for total in budgets:
+        generations = max(1, min(20, (total - 64) // (2 * population)))
+        t0 = time.perf_counter()
+        r = run_task(sweep, member, catalog_name, seed, generations, population,
+                     evaluations_per_task=total)
+        seconds = time.perf_counter() - t0
+        problem = RecordingProblem(sweep, member, catalog_name, seed=seed)
+        f, _, _ = problem.evaluate_search(r.x_front)
+        snapshots[total] = (r.evaluations, f, seconds)
     return snapshots
 
 
 def main(argv=None):
     parser = argparse.ArgumentParser(description=__doc__.split("\n")[0])
     parser.add_argument("--repeats", type=int, default=3, help="runs of the demo sweep")
-    parser.add_argument("--generations", type=int, nargs="+", default=[5, 10, 20, 40, 80])
+    parser.add_argument("--budgets", type=int, nargs="+",
+                        default=[5_000, 10_000, 20_000, 50_000, 100_000, 200_000],
+                        help="evaluations per task of the staged search in part 2")
     parser.add_argument("--seeds", type=int, default=3, help="independent searches in part 2")
     parser.add_argument("--member", default=HV_MEMBER, help="member of the demo sweep for "
                         "the hypervolume curve")
@@ -279,6 +282,9 @@ def main(argv=None):
     catalog_name = sweep.catalogs[0].name
     base_seed = task_seed(sweep.spec.seed, member.name, catalog_name)
     problem = MemberProblem(sweep, member, catalog_name, seed=base_seed)
+    # the grid runs over (a, b): the plain layout, without the impedance construction
+    problem.layout = replace(problem.layout, impedance_construction=False, bounds={
+        k: tuple(getattr(sweep.spec.search, k)) for k in problem.layout.bounds})
     t0 = time.perf_counter()
     f_grid, grid_info = reference_front(problem, args.coarse_grid, args.grid,
                                         args.band_widening, args.chunk)
@@ -302,24 +308,25 @@ def main(argv=None):
             zero_to_one=True, norm_ref_point=False)
     hv_grid = float(hv(f_grid))
     population = sweep.spec.search.population
-    gens = sorted(set(args.generations))
+    gens = sorted(set(args.budgets))
     curves, finals = [], [f_grid]
     for k in range(args.seeds):
         snaps = search_curve(sweep, member, catalog_name, population, gens, base_seed + k)
-        curves.append({g: (n, float(hv(f)) / hv_grid if len(f) else 0.0, len(f))
-                       for g, (n, f) in snaps.items()})
+        curves.append({g: (n, float(hv(f)) / hv_grid if len(f) else 0.0, sec)
+                       for g, (n, f, sec) in snaps.items()})
         finals.append(snaps[gens[-1]][1])
     # completeness of the grid: how much the searches' final archives add to its front
     union_gain = float(hv(non_dominated(np.vstack(finals)))) / hv_grid
     print(f"  HV of the grid front {hv_grid:.6f} (objectives normalized to the grid front's "
-          f"ideal/nadir, reference point {HV_REFERENCE} each); search with population "
-          f"{population}, {args.seeds} seeds:")
-    print("    generation  evaluations  HV ratio (median; per seed)")
+          f"ideal/nadir, reference point {HV_REFERENCE} each); staged search, {args.seeds} "
+          f"seeds:")
+    print("    budget  evaluations  seconds  HV ratio (median; per seed)")
     by_gen = {}
     for g in gens:
         ratios = [c[g][1] for c in curves]
         by_gen[g] = statistics.median(ratios)
-        print(f"    {g:10d}  {curves[0][g][0]:11,d}  {by_gen[g]:.4f}  ("
+        sec = statistics.median(c[g][2] for c in curves)
+        print(f"    {g:7d}  {curves[0][g][0]:11,d}  {sec:7.2f}  {by_gen[g]:.4f}  ("
               + ", ".join(f"{r:.4f}" for r in ratios) + ")")
     print(f"  grid completeness: HV(grid front + final archives) / HV(grid front) = "
           f"{union_gain:.5f} (1 means the searches found nothing the grid had missed)")
@@ -330,8 +337,8 @@ def main(argv=None):
         "hv_grid_info": grid_info, "hv_grid_front": int(len(f_grid)),
         "hv_grid_seconds": t_grid, "hv_reference_point": HV_REFERENCE,
         "hv_population": population, "hv_seeds": args.seeds,
-        "hv_ratio_by_generation": {str(g): by_gen[g] for g in gens},
-        "hv_evaluations_by_generation": {str(g): curves[0][g][0] for g in gens}})
+        "hv_ratio_by_budget": {str(g): by_gen[g] for g in gens},
+        "hv_evaluations_by_budget": {str(g): curves[0][g][0] for g in gens}})
     print(json.dumps(results, sort_keys=True))
 
 

@@ -175,8 +175,8 @@ def test_sigkill_of_parent_leaves_no_worker_processes(reference, tmp_path):
 def test_sigint_on_cluster_stops_promptly(reference, cluster, tmp_path):
     """Tasks of ~10 s (1000 generations); SIGINT 4 s after the start must end the client
     within 4 s with exit code 130."""
-    proc = _start_sweep(reference[0], tmp_path, "--generations", "1000", "--scheduler",
-                        cluster.scheduler_address)
+    proc = _start_sweep(reference[0], tmp_path, "--generations", "1000", "--evaluations",
+                        "20000", "--scheduler", cluster.scheduler_address)
     try:
         time.sleep(4.0)
         proc.send_signal(signal.SIGINT)

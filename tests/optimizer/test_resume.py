@@ -59,6 +59,7 @@ def small_sweep_text(catalog_dir: Path = CATALOG_DIR, name: str = SWEEP_NAME,
         (r"(?ms)^catalogs = \[.*?\]", f"catalogs = [{paths}]"),
         (r"(?m)^population = \d+", "population = 16"),
         (r"(?m)^generations = \d+", f"generations = {GENERATIONS}"),
+        (r"(?m)^evaluations_per_task = \d+", "evaluations_per_task = 6000"),
     ]
     for pattern, new in edits:
         head, n = re.subn(pattern, lambda _m, new=new: new, head, count=1)
@@ -365,9 +366,11 @@ class _StopAfter:
 
 
 def _interrupted_run(monkeypatch, sweep_file, out):
-    """Stop the serial run at generation 10 of the second task (a poll before each task and
-    one per generation)."""
-    monkeypatch.setattr(execution, "StopFlag", lambda: _StopAfter(1 + GENERATIONS + 1 + 9))
+    """Stop the serial run at generation 10 of the second task (a poll before each task, one
+    per chunk of the dense stage and per batch of the refinement stage, one per generation)."""
+    stages = 2  # at this budget one dense chunk and one refinement batch per task
+    monkeypatch.setattr(execution, "StopFlag",
+                        lambda: _StopAfter(1 + stages + GENERATIONS + 1 + stages + 9))
     with pytest.raises(SweepInterrupted, match="cablefam resume"):
         run_sweep(load_sweep(sweep_file), out)
     monkeypatch.undo()

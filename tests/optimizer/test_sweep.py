@@ -235,7 +235,8 @@ def test_different_seed_gives_a_different_front_of_similar_hypervolume(two_objec
 def small_demo_run(tmp_path_factory):
     """The demo sweep (3 members x 2 catalogs) with a small budget, seed 7 from the file."""
     out = tmp_path_factory.mktemp("small-demo")
-    return run_sweep(load_sweep(demo_sweep_path()), out, generations=20, population=30)
+    return run_sweep(load_sweep(demo_sweep_path()), out, generations=20, population=30,
+                     evaluations_per_task=4000)
 
 
 def read_front(run_dir):
@@ -276,7 +277,8 @@ def test_front_rows_round_trip_through_design_and_inspect(cli, small_demo_run, t
     members = {m.name: m for m in load_sweep(demo_sweep_path()).spec.member}
     worst = 0.0
     for (member, catalog), rows in df.groupby(["member", "catalog"], sort=False):
-        for index in range(len(rows)):
+        # four rows spread over each task's front (every row: minutes of inspect calls)
+        for index in np.unique(np.linspace(0, len(rows) - 1, 4).astype(int)).tolist():
             code, text, err = cli("design", small_demo_run, "--member", member, "--index",
                                   index, "--catalog", catalog)
             assert code == 0, err
@@ -315,7 +317,8 @@ def test_no_front_row_dominates_another_of_its_task(small_demo_run):
 
 @pytest.mark.slow
 def test_same_seed_gives_byte_identical_front(small_demo_run, tmp_path):
-    again = run_sweep(load_sweep(demo_sweep_path()), tmp_path, generations=20, population=30)
+    again = run_sweep(load_sweep(demo_sweep_path()), tmp_path, generations=20, population=30,
+                     evaluations_per_task=4000)
     assert again != small_demo_run
     assert (again / "front.parquet").read_bytes() == (small_demo_run / "front.parquet"
                                                       ).read_bytes()
@@ -337,16 +340,12 @@ def test_demo_with_another_seed_differs_with_similar_hypervolume(tmp_path):
         ideal, nadir = both.min(axis=0), both.max(axis=0)
         hv = [hypervolume(x, ideal, nadir) for x in f]
         report.append(f"{key[0]}/{key[1]} {hv[1] / hv[0]:.3f}")
-        # within 10 %: the demo budget does not converge every task (measured: up to ~7 %)
     print("\nhypervolume seed 8 / seed 7: " + ", ".join(report))
     ratios = np.array([float(item.split()[-1]) for item in report])
-    # Measured at the demo budget (80 generations x 64): eight of nine tasks within 8 %; the
-    # power-limited mast feeder on the baseline catalog (solid PE at 70 degC, 1500 W, yield
-    # >= 0.997) has a thin feasible region and differed by 32 %. The typical task must agree
-    # closely; every task must be in the same range.
-    assert np.median(ratios) == pytest.approx(1.0, abs=0.05), report
-    assert np.all((ratios > 0.6) & (ratios < 1.0 / 0.6)), report
-    print("\nhypervolume seed 8 / seed 7: " + ", ".join(report))
+    # The search issue's target: the answer does not depend on the seed. Measured with
+    # tests/benchmarks/bench_search.py: spread <= 0.03 % per task; the three printed digits here
+    # must all read 1.000 (before the staged search: up to 32 % apart).
+    assert np.all(np.abs(ratios - 1.0) <= 0.002), report
 
 
 # --------------------------------------------------------------------------- bad sweep files
@@ -496,7 +495,7 @@ def test_existing_run_folder_needs_overwrite(cli, tmp_path):
 @pytest.mark.slow
 def test_demo_sweep_cli_writes_the_run_folder(tmp_path):
     proc = run_subprocess("sweep", "--demo", "--out", "runs", "--generations", "5",
-                          "--population", "20", cwd=tmp_path)
+                          "--population", "20", "--evaluations", "2000", cwd=tmp_path)
     assert proc.returncode == 0, proc.stderr
     run_dir = tmp_path / "runs" / "larkspur-harbour"
     assert proc.stdout == "runs/larkspur-harbour\n"  # stdout: only the run folder path
@@ -526,12 +525,13 @@ def test_demo_sweep_cli_writes_the_run_folder(tmp_path):
     assert counts["front_rows"] == table.num_rows == sum(counts["front_rows_per_task"].values())
     run_info = json.loads((run_dir / "run.json").read_text())
     assert counts["evaluations"] == sum(t["evaluations"] for t in run_info["tasks"])
-    assert 0 < counts["evaluations"] <= 3 * len(names) * 5 * 20
+    assert 0 < counts["evaluations"] <= 3 * len(names) * 2000  # the --evaluations budget
     assert run_info["seed"] == 7 and len(run_info["tasks"]) == 3 * len(names)
 
     # a second process with the same seed writes the same bytes
     proc2 = run_subprocess("sweep", "--demo", "--out", "again", "--generations", "5",
-                           "--population", "20", "--quiet", cwd=tmp_path)
+                           "--population", "20", "--evaluations", "2000", "--quiet",
+                           cwd=tmp_path)
     assert proc2.returncode == 0, proc2.stderr
     assert (tmp_path / "again" / "larkspur-harbour" / "front.parquet").read_bytes() == (
         run_dir / "front.parquet").read_bytes()

@@ -95,6 +95,7 @@ def _yield_sweep(tmp_path, min_yield="0.99"):
     """The demo's first member (it carries a yield requirement), on a small budget."""
     text = re.sub(r"(?m)^population = \d+$", "population = 40", _demo_text())
     text = re.sub(r"(?m)^generations = \d+$", "generations = 30", text)
+    text = re.sub(r"(?m)^evaluations_per_task = \d+", "evaluations_per_task = 8000", text)
     text = re.sub(r"(?m)^min_impedance_yield = .*$", f"min_impedance_yield = {min_yield}", text)
     assert "[tolerance]" in text and "min_impedance_yield" in text
     head, first, *_ = text.split("[[member]]")

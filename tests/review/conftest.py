@@ -13,7 +13,7 @@ from cablefam.optimizer.run_folder.files import FRONT_FILE, RUN_FILE, read_prove
 from cablefam.optimizer.inputs.sweep_spec import demo_sweep_path, load_sweep
 
 #: Tiny sweeps: enough for fronts of a few designs per task, about 2 s each.
-TINY = dict(generations=5, population=12)
+TINY = dict(generations=5, population=12, evaluations_per_task=3000)
 
 
 @pytest.fixture(scope="session")
