@@ -91,7 +91,7 @@ def write_outputs(sweep, settings, run_dir, results, started, wall, resumed=0, f
     members = {m.name: m for m in sweep.spec.member}
     for r in results:
         problem = MemberProblem(sweep, members[r.member], r.catalog, seed=r.seed)
-        fronts.append(front_frame(problem, r.x_front))
+        fronts.append(r.front if r.front is not None else front_frame(problem, r.x_front))
         if r.evaluated is not None:
             evaluated.append(evaluated_frame(problem, r.evaluated))
     front = pd.concat(fronts, ignore_index=True)

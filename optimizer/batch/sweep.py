@@ -115,6 +115,24 @@ def check_budget(sweep: Sweep, settings: SweepSettings) -> None:
                          f"generations {settings.generations})")
 
 
+def longest_first(sweep: Sweep, specs):
+    """Tasks in the order to hand them to workers: the costliest first, so that no worker
+    is left with a long task at the end (results are assembled in task order regardless).
+    Cost estimate: a Monte Carlo yield constraint, then the number of material combinations."""
+    members = {m.name: m for m in sweep.spec.member}
+    tol = sweep.spec.tolerance
+    monte_carlo = tol is not None and tol.method == "monte-carlo"
+
+    def cost(spec):
+        m = members[spec.member]
+        combos = 1
+        for ids in sweep.materials[spec.catalog].values():
+            combos *= max(1, len(ids))
+        return (monte_carlo and m.min_impedance_yield is not None, combos)
+
+    return sorted(specs, key=cost, reverse=True)
+
+
 def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, population=None,
               record_evaluated=False, overwrite=False, progress=None, resume=False,
               force=False, workers=1, scheduler=None, checkpoint_every=None,
@@ -176,7 +194,8 @@ def run_sweep(sweep: Sweep, out_dir="runs", *, seed=None, generations=None, popu
         if scheduler:
             run_dask(payload, todo, on_result, progress, stop, scheduler)
         elif workers > 1 and len(todo) > 1:
-            run_local_processes(payload, todo, on_result, progress, stop, workers)
+            run_local_processes(payload, longest_first(sweep, todo), on_result, progress, stop,
+                                workers)
         else:
             run_serial(payload, todo, on_result, progress, stop)
     except TaskInterrupted:

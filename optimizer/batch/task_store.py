@@ -30,6 +30,8 @@ from cablefam.optimizer.search.pymoo_state import TaskState
 from cablefam.optimizer.search.task import TaskResult
 
 FORMAT = "cablefam-checkpoint/1"
+#: The finished task's front rows, assembled by the process that ran it.
+FRONT_ROWS = "front-rows.parquet"
 
 
 def task_id(member: str, catalog: str) -> str:
@@ -129,6 +131,9 @@ class TaskStore:
         _write_matrices(self.dir / "result.parquet", {"x": result.x_front})
         if result.evaluated is not None:
             _write_matrices(self.dir / "result-evaluated.parquet", {"e": result.evaluated})
+        if result.front is not None:
+            with atomic_path(self.dir / FRONT_ROWS) as tmp:
+                pq.write_table(pa.Table.from_pandas(result.front, preserve_index=False), tmp)
         doc = {"format": FORMAT, "member": result.member, "catalog": result.catalog,
                "seed": result.seed, "evaluations": result.evaluations,
                "generations": result.generations, "seconds": result.seconds,
@@ -157,4 +162,6 @@ class TaskStore:
                           x_front=x, evaluations=doc["evaluations"],
                           generations=doc["generations"], seconds=doc["seconds"],
                           physics_seconds=doc["physics_seconds"],
-                          feasible_evaluated=doc["feasible_evaluated"], evaluated=evaluated)
+                          feasible_evaluated=doc["feasible_evaluated"], evaluated=evaluated,
+                          front=(pq.read_table(self.dir / FRONT_ROWS).to_pandas()
+                                 if (self.dir / FRONT_ROWS).is_file() else None))

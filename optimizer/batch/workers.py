@@ -20,7 +20,9 @@ from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
 from dataclasses import dataclass
 from functools import lru_cache
 
+from cablefam.optimizer.batch.assemble import front_frame
 from cablefam.optimizer.batch.task_store import TaskStore
+from cablefam.optimizer.search.problem import MemberProblem
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.search.task import TaskInterrupted, TaskResult, run_task, task_seed
 
@@ -71,6 +73,9 @@ def execute_task(payload_json: str, spec: TaskSpec, progress=None, stop=None) ->
                       evaluations_per_task=spec.evaluations_per_task,
                       deadline=None if spec.time_share_s is None
                       else time.perf_counter() + spec.time_share_s)
+    # the task's front rows are assembled here, in parallel, not by the collecting process
+    result.front = front_frame(MemberProblem(sweep, member, spec.catalog, seed=spec.seed),
+                               result.x_front)
     if store is not None:
         store.write_result(result)
     return result

@@ -67,6 +67,8 @@ class TaskResult:
     physics_seconds: float
     feasible_evaluated: int
     evaluated: np.ndarray | None
+    front: object | None = None
+    """The task's front rows (a DataFrame), when the process that ran it assembled them."""
 
 
 class RecordingProblem(MemberProblem):
