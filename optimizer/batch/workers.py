@@ -14,6 +14,7 @@ import contextlib
 import multiprocessing
 import os
 import signal
+import sys
 import threading
 import time
 from concurrent.futures import FIRST_COMPLETED, ProcessPoolExecutor, wait
@@ -94,11 +95,26 @@ def _exit_when_orphaned(parent_pid: int, interval_s: float = 0.5):
             os._exit(1)
 
 
+def _die_with_parent():
+    """Linux: ask the kernel to SIGKILL this worker when its parent dies (prctl
+    PR_SET_PDEATHSIG), which works even while the worker is inside a long numerical call; the
+    polling thread below covers other systems."""
+    try:
+        import ctypes
+
+        libc = ctypes.CDLL(None, use_errno=True)
+        libc.prctl(1, int(signal.SIGKILL), 0, 0, 0)  # 1 = PR_SET_PDEATHSIG
+    except (OSError, AttributeError):
+        pass
+
+
 def _worker_init(stop_event):
     global _WORKER_STOP  # the process-wide stop flag of a worker process, set once
     _WORKER_STOP = stop_event
     signal.signal(signal.SIGINT, signal.SIG_IGN)  # the parent decides; workers checkpoint
     signal.signal(signal.SIGTERM, signal.SIG_IGN)
+    if sys.platform.startswith("linux"):
+        _die_with_parent()
     threading.Thread(target=_exit_when_orphaned, args=(os.getppid(),), daemon=True).start()
 
 
