@@ -148,6 +148,13 @@ def _start_sweep(sweep_file, out, *extra):
 
 
 @pytest.mark.skipif(not sys.platform.startswith("linux"), reason="reads /proc")
+def _cmdline(pid: int) -> bytes:
+    try:
+        return Path(f"/proc/{pid}/cmdline").read_bytes()
+    except OSError:
+        return b""
+
+
 def test_sigkill_of_parent_leaves_no_worker_processes(reference, tmp_path):
     """Worker processes of a SIGKILLed sweep end by themselves within seconds (they
     ignore SIGINT/SIGTERM, so nothing else would stop them writing into the run folder)."""
@@ -164,13 +171,17 @@ def test_sigkill_of_parent_leaves_no_worker_processes(reference, tmp_path):
         # they poll their parent every 0.5 s; a worker still starting up (imports) on a loaded
         # two-core machine checks only once it is up: allow 15 s
         t_end = time.monotonic() + 15.0
-        while session_pids(proc.pid) and time.monotonic() < t_end:
+        while time.monotonic() < t_end and any(
+                b"resource_tracker" not in _cmdline(p) for p in session_pids(proc.pid)):
             time.sleep(0.1)
-        left = session_pids(proc.pid)
+        # multiprocessing's resource tracker writes nothing into the run folder and ends once
+        # the last holder of its pipe is gone; the workers are what must not run on
+        left = [p for p in session_pids(proc.pid) if b"resource_tracker" not in _cmdline(p)]
+        cmdlines = [_cmdline(p)[:200] for p in left]
     finally:
         for pid in session_pids(proc.pid):  # only the processes this test started
             os.kill(pid, signal.SIGKILL)
-    assert left == [], f"{len(left)} processes of the killed sweep still run"
+    assert left == [], f"{len(left)} processes of the killed sweep still run: {cmdlines}"
 
 
 @pytest.mark.slow
