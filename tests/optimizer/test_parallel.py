@@ -147,7 +147,6 @@ def _start_sweep(sweep_file, out, *extra):
                             start_new_session=True)
 
 
-@pytest.mark.skipif(not sys.platform.startswith("linux"), reason="reads /proc")
 def _cmdline(pid: int) -> bytes:
     try:
         return Path(f"/proc/{pid}/cmdline").read_bytes()
@@ -155,6 +154,7 @@ def _cmdline(pid: int) -> bytes:
         return b""
 
 
+@pytest.mark.skipif(not sys.platform.startswith("linux"), reason="reads /proc")
 def test_sigkill_of_parent_leaves_no_worker_processes(reference, tmp_path):
     """Worker processes of a SIGKILLed sweep end by themselves within seconds (they
     ignore SIGINT/SIGTERM, so nothing else would stop them writing into the run folder)."""
