@@ -2,4 +2,6 @@
 
 from cablefam.optimizer.cli.app import main
 
-main()
+# guarded: worker processes started with "spawn" import the parent's main module again
+if __name__ == "__main__":
+    main()
