@@ -17,7 +17,7 @@ from dataclasses import dataclass
 #: Evaluations per task when the sweep file gives none (about half a second of physics).
 DEFAULT_EVALUATIONS_PER_TASK = 100_000
 #: Share of the non-genetic evaluations that goes to the dense stage (the rest: refinement).
-DENSE_SHARE = float(__import__("os").environ.get("CF_DENSE", 0.4))
+DENSE_SHARE = 0.4
 #: Smallest dense stage: a few quasi-random points per material combination at least.
 MIN_DENSE_EVALUATIONS = 64
 

@@ -267,13 +267,16 @@ class MemberProblem(Problem):
     def evaluate_rows(self, x, include_max_power=None, with_yield=True):
         """Quantities, margins, material indices and the designs (with their solved radii)."""
         computed, actual, idx = self.designs(x)
+        values, margins = self._quantities(computed, actual, include_max_power, with_yield)
+        return values, margins, idx, actual
+
+    def _quantities(self, computed, actual, include_max_power=None, with_yield=True):
         if include_max_power is None:
             include_max_power = self.needs_max_power
         values = evaluate(computed, self.operating_point(), include_max_power=include_max_power)
         if self.spread is not None and with_yield:
             values.update(self.impedance_yield(computed, values))
-        margins = self._margins(values, computed, actual)
-        return values, margins, idx, actual
+        return values, self._margins(values, computed, actual)
 
     def _margins(self, values, computed, actual):
         diel_max = computed.dielectric.get("max_temperature_c")
@@ -305,17 +308,17 @@ class MemberProblem(Problem):
         computed only where it can change the front: for designs that meet every other
         constraint, that the archive does not already dominate (``may_enter``, a function of F),
         in rounds over the best Pareto ranks of those until the non-dominated ones are all
-        known and meet the limit (so the archive gets exactly what a full evaluation gives). Every other design gets a yield margin of :data:`UNKNOWN_YIELD_MARGIN`
-        (a tiny violation: it ranks below the feasible designs) and the optimistic yield 1 as
+        known and meet the limit (so the archive gets exactly what a full evaluation gives).
+        Every other design gets a yield margin of :data:`UNKNOWN_YIELD_MARGIN` (a tiny violation: it ranks below the feasible designs) and the optimistic yield 1 as
         objective. Returns ``f, g, known`` with ``known`` False where the yield was skipped.
         """
         lazy = self.yield_in_search and self.draws is not None
-        values, margins, _, _ = self.evaluate_rows(x, with_yield=self.yield_in_search and not lazy)
-        computed = actual = None
+        computed, actual, _ = self.designs(x)  # once: it solves the dielectric radius
+        values, margins = self._quantities(computed, actual,
+                                           with_yield=self.yield_in_search and not lazy)
         n = len(x)
         known = np.ones(n, dtype=bool)
         if lazy:
-            computed, actual, _ = self.designs(x)
             values["impedance_yield"] = np.ones(n)
             margins = self._margins(values, computed, actual)
             others = np.all(np.column_stack([margins[c] for c in CONSTRAINTS
