@@ -108,14 +108,19 @@ def _die_with_parent():
         pass
 
 
-def _worker_init(stop_event):
+def _worker_init(stop_event, parent_pid):
+    """``parent_pid`` comes from the parent: a worker still importing when its parent was
+    killed would otherwise read the adopting process's pid from ``os.getppid()`` and never
+    notice (seen once in CI on a loaded machine)."""
     global _WORKER_STOP  # the process-wide stop flag of a worker process, set once
     _WORKER_STOP = stop_event
     signal.signal(signal.SIGINT, signal.SIG_IGN)  # the parent decides; workers checkpoint
     signal.signal(signal.SIGTERM, signal.SIG_IGN)
     if sys.platform.startswith("linux"):
         _die_with_parent()
-    threading.Thread(target=_exit_when_orphaned, args=(os.getppid(),), daemon=True).start()
+    if os.getppid() != parent_pid:  # died before the kernel was asked to tell us
+        os._exit(1)
+    threading.Thread(target=_exit_when_orphaned, args=(parent_pid,), daemon=True).start()
 
 
 def _worker_task(payload_json, spec):
@@ -189,7 +194,7 @@ def _run_local_processes(payload_json, specs, on_result, progress, stop, workers
     queue = list(specs)
     interrupted = False
     with ProcessPoolExecutor(max_workers=workers, mp_context=ctx, initializer=_worker_init,
-                             initargs=(event,)) as pool:
+                             initargs=(event, os.getpid())) as pool:
         while queue and len(pending) < workers:
             spec = queue.pop(0)
             pending[pool.submit(_worker_task, payload_json, spec)] = spec
