@@ -66,6 +66,13 @@ class DielectricMaterial(Record):
     price_per_kg: Price | None = None
     name: str | None = None
     source: str | None = None
+    # foamed dielectric by void fraction and dielectric dispersion: with void_fraction the
+    # values above are the solid polymer's; with reference_frequency_hz the permittivity and
+    # loss tangent hold at that frequency (elsewhere the wideband Debye model); foamable: a
+    # sweep's [search] void_fraction sets this dielectric's void fraction
+    void_fraction: Annotated[float, Field(ge=0.0, lt=1.0)] | None = None
+    reference_frequency_hz: Annotated[float, Field(gt=0, le=1e12)] | None = None
+    foamable: bool | None = None
 
 
 class JacketMaterial(Record):

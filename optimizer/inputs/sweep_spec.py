@@ -59,6 +59,16 @@ class _SearchFields(Record):
     """Evaluations per member x catalog task (both stages); default: see search.budget."""
     resolution: dict[str, Annotated[float, Field(gt=0.0, allow_inf_nan=False)]] = {}
     """Objective name -> resolution of the front in the objective's unit."""
+    # foamed dielectric by void fraction: bounds of the void fraction of the foamable
+    # dielectrics (records with foamable = true), a continuous design variable when lo < hi
+    void_fraction: Bounds | None = None
+
+    @field_validator("void_fraction")
+    @classmethod
+    def _void_fraction_bounds(cls, v):
+        if v is not None and not 0.0 <= v[0] <= v[1] < 1.0:
+            raise ValueError("bounds must satisfy 0 <= lower <= upper < 1")
+        return v
 
     @field_validator("resolution")
     @classmethod
@@ -161,6 +171,9 @@ class MemberSpec(Record):
     single_mode_margin: Annotated[float, Field(ge=0.0)] = 1.0
     min_shield_skin_depths: Annotated[float, Field(ge=0.0)] = 2.0
     min_impedance_yield: Annotated[float, Field(gt=0.0, le=1.0)] | None = None
+    # foamed dielectric by void fraction: limits on the velocity factor and the capacitance
+    min_velocity_factor: Annotated[float, Field(gt=0.0, le=1.0)] | None = None
+    max_capacitance_f_per_m: Annotated[float, Field(gt=0.0, lt=1e-6)] | None = None
 
     @field_validator("name")
     @classmethod
@@ -263,7 +276,17 @@ def parse_sweep(raw: dict, where: str, base_dir: Path, text: str = "",
                 raise InputError(f"{where}: search.{key} = {wanted!r}: catalog {c.name!r} "
                                  f"({c.path}) has none of these {kind} ids")
             materials[c.name][table] = ids
+    if s.void_fraction is not None:  # foamed dielectric by void fraction
+        _check_foamable(catalogs, materials, where, s.void_fraction)
     return Sweep(spec=spec, path=Path(where), text=text, catalogs=catalogs, materials=materials)
+
+
+def _check_foamable(catalogs, materials, where, bounds):
+    """``[search] void_fraction`` needs a foamable dielectric among those searched."""
+    if not any(c.materials["dielectric"][i].foamable
+               for c in catalogs for i in materials[c.name]["dielectric"]):
+        raise InputError(f"{where}: search.void_fraction = {bounds!r}: no dielectric searched "
+                         "is foamable (give a catalog's dielectric record foamable = true)")
 
 
 def load_sweep(path) -> Sweep:

@@ -17,7 +17,9 @@ NON_FINITE_MARGIN = -1.0e3
 
 CONSTRAINTS = ("geometry", "impedance", "peak_field", "conductor_temperature",
                "jacket_temperature", "single_mode", "outer_diameter", "shield_skin_depths",
-               "impedance_yield")
+               "impedance_yield",
+               # foamed dielectric by void fraction
+               "velocity_factor", "capacitance")
 
 
 def geometry_margin(a, b):
@@ -82,5 +84,11 @@ def constraint_margins(values, designs, member, dielectric_max_c, jacket_max_c):
                                 ) / member.min_impedance_yield
     else:
         m["impedance_yield"] = off
+    # foamed dielectric by void fraction: the member's velocity-factor and capacitance limits
+    vf_min = getattr(member, "min_velocity_factor", None)
+    m["velocity_factor"] = (off if vf_min is None
+                            else (values["velocity_factor"] - vf_min) / vf_min)
+    c_max = getattr(member, "max_capacitance_f_per_m", None)
+    m["capacitance"] = off if c_max is None else (c_max - values["c_f_per_m"]) / c_max
     return {k: np.where(np.isfinite(v), v, NON_FINITE_MARGIN).astype(float) * np.ones(shape)
             for k, v in ((k, m[k]) for k in CONSTRAINTS)}

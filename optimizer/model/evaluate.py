@@ -12,6 +12,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from cablefam.optimizer.model import effective_dielectric
 from cablefam.physics import (eccentricity, fields, line, mass, modes, propagation, stranding,
                               thermal)
 from cablefam.physics.internal_impedance import tube_dc_resistance
@@ -228,6 +229,8 @@ def _fields(op: OperatingPoint):
 def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
                     no_jacket) -> dict[str, np.ndarray]:
     """:func:`evaluate` of one block; ``no_jacket`` is decided on the whole population."""
+    # a foamed or dispersive dielectric: its effective values at the operating frequency
+    d, dielectric_out = effective_dielectric.resolve(d, op.frequency_hz)
     a, b = d.inner_radius, d.dielectric_radius
     c, rd = d.shield_radius, d.outer_radius
     diel = d.dielectric
@@ -320,4 +323,5 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
     if thermal_ok and include_max_power and "max_temperature_c" in diel:
         jacket_max = jacket.get("max_temperature_c") if not no_jacket else None
         out["max_power_w"] = thermal.power_rating(inputs, diel["max_temperature_c"], jacket_max)
+    out.update(dielectric_out)
     return out

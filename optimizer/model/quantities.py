@@ -106,6 +106,9 @@ _ALL = (
     Quantity("dielectric_radius_m", "dielectric radius b", "m"),
     Quantity("shield_thickness_m", "shield thickness", "m"),
     Quantity("jacket_thickness_m", "jacket thickness", "m"),
+    # foamed dielectric by void fraction and dielectric dispersion
+    Quantity("void_fraction", "dielectric void fraction", "-", _LINE),
+    Quantity("effective_relative_permittivity", "effective permittivity", "-", _LINE, "at f"),
 )
 
 #: key -> quantity, in report order

@@ -54,6 +54,8 @@ def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
             continue
         ids[table] = f"{kind} id {mid!r}"
         doc[table] = cat.get(kind, mid, f"run {run_dir}").model_dump(exclude_none=True)
+        if doc[table].get("foamable") and "void_fraction" in row:  # the search's void fraction
+            doc[table]["void_fraction"] = float(row["void_fraction"])
     doc["operating"] = {k: float(row[k]) for k in _OPERATING if not math.isnan(float(row[k]))}
     return doc, row["catalog"], ids
 

@@ -28,6 +28,9 @@ from cablefam.optimizer.model.slots import SLOT_KINDS, SLOT_NAMES
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS, MemberSpec, Sweep
 from cablefam.optimizer.model.tolerance import (common_draws, impedance_yield_analytic,
                                  impedance_yield_monte_carlo)
+from cablefam.optimizer.model.effective_dielectric import resolve_table
+from cablefam.optimizer.search.void_fraction import (VOID_FRACTION, effective_permittivity_range,
+                                                     record_columns, with_design_void_fraction)
 from cablefam.optimizer.inputs.wire_size_table import standard_diameters
 from cablefam.physics.stranding import stranded_effective_radius
 from cablefam.physics.wire_sizes import snap_to_sizes
@@ -59,15 +62,21 @@ class Layout:
         """Names of the continuous decision variables, in decision-vector order."""
         return tuple(IMPEDANCE_OFFSET if (k == "dielectric_radius_m"
                                           and self.impedance_construction) else k
-                     for k in self.free_geometry)
+                     for k in self.free_geometry) + self.free_extra
+
+    @property
+    def free_extra(self) -> tuple[str, ...]:
+        """Continuous variables after the geometry: the void fraction when it is free."""
+        lo_hi = self.bounds.get(VOID_FRACTION)
+        return (VOID_FRACTION,) if lo_hi is not None and lo_hi[1] > lo_hi[0] else ()
 
     @property
     def n_var(self):
-        return len(self.free_geometry) + len(self.free_materials)
+        return len(self.free_geometry) + len(self.free_extra) + len(self.free_materials)
 
     @property
     def integer_columns(self):
-        n = len(self.free_geometry)
+        n = len(self.free_geometry) + len(self.free_extra)
         return np.arange(n, n + len(self.free_materials))
 
     def lower_upper(self):
@@ -96,6 +105,12 @@ class Layout:
                 col += 1
             else:
                 geometry[key] = np.full(n, self.bounds[key][0])
+        if VOID_FRACTION in self.bounds:  # foamed dielectric by void fraction
+            if self.free_extra:
+                geometry[VOID_FRACTION] = x[:, col].copy()
+                col += 1
+            else:
+                geometry[VOID_FRACTION] = np.full(n, self.bounds[VOID_FRACTION][0])
         if self.inner_radius_sizes is not None:
             geometry["inner_radius_m"] = 0.5 * snap_to_sizes(2.0 * geometry["inner_radius_m"],
                                                              2.0 * self.inner_radius_sizes)
@@ -113,6 +128,8 @@ class Layout:
 def make_layout(sweep: Sweep, catalog_name: str) -> Layout:
     s = sweep.spec.search
     bounds = {k: tuple(getattr(s, k)) for k in GEOMETRY_KEYS}
+    if s.void_fraction is not None:  # foamed dielectric by void fraction
+        bounds[VOID_FRACTION] = tuple(s.void_fraction)
     free_geometry = tuple(k for k in GEOMETRY_KEYS if bounds[k][1] > bounds[k][0])
     ids = sweep.materials[catalog_name]
     free_materials = tuple(t for t in SLOT_NAMES if len(ids.get(t, ())) > 1)
@@ -182,13 +199,14 @@ class MemberProblem(Problem):
         if m.max_outer_diameter_m is not None:
             b_hi = min(b_hi, 0.5 * m.max_outer_diameter_m - bounds["shield_thickness_m"][0]
                        - bounds["jacket_thickness_m"][0])
-        eps = self._tables["dielectric"]["relative_permittivity"]
+        eps_min, eps_max = effective_permittivity_range(  # of the foamed, dispersive dielectric
+            self._tables["dielectric"], self._foamable, bounds.get(VOID_FRACTION), m.frequency_hz)
         strands = self.sweep.spec.search.inner_strands
         k_el = 1.0 if strands == 1 else float(stranded_effective_radius(1.0, strands))
         z_lo = target_impedance(m.impedance_ohm, m.impedance_tolerance_ohm, -1.0)
         z_hi = target_impedance(m.impedance_ohm, m.impedance_tolerance_ohm, 1.0)
-        ratio_lo = dielectric_radius_lossless(1.0, eps.min(), z_lo)
-        ratio_hi = dielectric_radius_lossless(1.0, eps.max(), z_hi)
+        ratio_lo = dielectric_radius_lossless(1.0, eps_min, z_lo)
+        ratio_hi = dielectric_radius_lossless(1.0, eps_max, z_hi)
         hi = min(a_hi, 1.05 * b_hi / (ratio_lo * k_el))
         lo = max(a_lo, b_lo / (1.05 * ratio_hi * k_el))
         if not lo < hi:  # nothing reachable: keep the sweep's bounds (all designs infeasible)
@@ -201,8 +219,12 @@ class MemberProblem(Problem):
             return None
         records = [self.catalog.get(SLOT_KINDS[table], i, table) for i in ids]
         keys = [k for k, v in records[0].model_dump().items() if isinstance(v, (int, float))
-                and not isinstance(v, bool)]
-        return {k: np.array([getattr(r, k) for r in records], dtype=float) for k in keys}
+                and not isinstance(v, bool) and k not in ("void_fraction", "reference_frequency_hz")]
+        out = {k: np.array([getattr(r, k) for r in records], dtype=float) for k in keys}
+        if table == "dielectric":  # foamed dielectric by void fraction, dispersion
+            extra, self._foamable = record_columns(records, VOID_FRACTION in self.layout.bounds)
+            out.update(extra)
+        return out
 
     def make_repair(self):
         """The rounding repair of this problem's integer columns."""
@@ -219,15 +241,19 @@ class MemberProblem(Problem):
             return None if t is None else {k: v[idx[table]] for k, v in t.items()}
 
         strands = self.sweep.spec.search.inner_strands
+        dielectric = pick("dielectric")
+        if VOID_FRACTION in geometry:  # foamed dielectric by void fraction
+            dielectric = with_design_void_fraction(dielectric, self._foamable[idx["dielectric"]],
+                                                   geometry.pop(VOID_FRACTION))
         if self.layout.impedance_construction:
             geometry["dielectric_radius_m"] = self.constructed_dielectric_radius(
-                geometry, pick("conductor"), pick("shield"), pick("dielectric"))
+                geometry, pick("conductor"), pick("shield"), dielectric)
         b = geometry["dielectric_radius_m"]
         # b <= a is a constraint violation, not an error: compute with a harmless b instead
         b_safe = np.where(b >= MIN_RADIUS_RATIO * a, b, 1.5 * a)
         computed = Designs(a, b_safe, geometry["shield_thickness_m"],
                            geometry["jacket_thickness_m"], inner=pick("conductor"),
-                           shield=pick("shield"), dielectric=pick("dielectric"),
+                           shield=pick("shield"), dielectric=dielectric,
                            jacket=pick("jacket"), inner_strands=strands)
         actual = Designs(a, b, computed.shield_thickness, computed.jacket_thickness,
                          computed.inner, computed.shield, computed.dielectric, computed.jacket,
@@ -243,7 +269,9 @@ class MemberProblem(Problem):
         target = target_impedance(m.impedance_ohm, m.impedance_tolerance_ohm,
                                   geometry.pop(IMPEDANCE_OFFSET))
         b = solve_dielectric_radius(a, a_el, geometry["shield_thickness_m"], m.frequency_hz,
-                                    target, inner, shield, dielectric, inner_strands=strands)
+                                    target, inner, shield,
+                                    resolve_table(dielectric, m.frequency_hz),  # effective
+                                    inner_strands=strands)
         lo, hi = self.layout.bounds["dielectric_radius_m"]
         return np.clip(b, lo, hi)
 
@@ -289,7 +317,8 @@ class MemberProblem(Problem):
         sel = slice(None) if rows is None else rows
         shape = np.shape(d.inner_radius)
         scale = np.broadcast_to(values["z0_ohm"] / values["z0_lossless_ohm"], shape)[sel]
-        eps = np.broadcast_to(d.dielectric["relative_permittivity"], shape)[sel]
+        eps = np.broadcast_to(values.get("effective_relative_permittivity",
+                                         d.dielectric["relative_permittivity"]), shape)[sel]
         a = np.broadcast_to(electrical_inner_radius(d), shape)[sel]
         b = d.dielectric_radius[sel]
         if self.draws is not None:
