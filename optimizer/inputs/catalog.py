@@ -114,6 +114,12 @@ def catalog_table(catalog: Catalog) -> str:
                          f"E_bd={m.dielectric_strength_v_per_m / 1e6:g} kV/mm, "
                          f"max {m.max_temperature_c:g} degC, rho_T={m.thermal_resistivity_k_m_per_w:g}"
                          f" K m/W, {m.density_kg_per_m3:g} kg/m3")
+                # foamed dielectric by void fraction and dispersion (solid values above)
+                props += "".join((f", solid at void fraction {m.void_fraction:g}"
+                                  if m.void_fraction is not None else "",
+                                  f", at {m.reference_frequency_hz:g} Hz"
+                                  if m.reference_frequency_hz is not None else "",
+                                  ", foamable" if m.foamable else ""))
             else:
                 props = (f"rho_T={m.thermal_resistivity_k_m_per_w:g} K m/W, max "
                          f"{m.max_temperature_c:g} degC, {m.density_kg_per_m3:g} kg/m3")

@@ -3,6 +3,8 @@ evaluation, the sweep's void-fraction variable and the member limits."""
 
 from __future__ import annotations
 
+import dataclasses
+
 import numpy as np
 import pyarrow.parquet as pq
 import pytest
@@ -226,3 +228,20 @@ def test_exported_front_row_reproduces_its_values(tmp_path, cli):
     for key in ("void_fraction", "effective_relative_permittivity", "z0_ohm",
                 "attenuation_db_per_100m", "mass_kg_per_km"):
         np.testing.assert_allclose(v[key], df[key].iloc[i], rtol=1e-9)
+
+
+def test_sheet_frequency_response_uses_the_dispersive_values(tmp_path):
+    from cablefam.optimizer.review.sheet import frequency_response
+
+    plain = frequency_response(load_design(DATA / "inline_minimal.toml"), None)
+    disp = frequency_response(load_design(design_file(
+        tmp_path, "reference_frequency_hz = 100e6\nvoid_fraction = 0.6")), None)
+    f = disp["frequency_hz"].to_numpy()
+    # each point equals a one-design evaluation at that frequency with the dispersive foam
+    d, op = design_arrays(load_design(tmp_path / "design.toml"))
+    for i in (0, len(f) // 2, len(f) - 1):
+        one = evaluate(d, dataclasses.replace(op, frequency_hz=f[i]))
+        np.testing.assert_allclose(disp["attenuation_20c_db_per_100m"][i],
+                                   one["attenuation_db_per_100m"][0], rtol=1e-12)
+    # foam lowers the dielectric loss and the capacitance, so the loss over frequency
+    assert (disp["attenuation_20c_db_per_100m"] < plain["attenuation_20c_db_per_100m"]).all()
