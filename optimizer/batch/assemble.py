@@ -75,6 +75,9 @@ def evaluated_frame(problem: MemberProblem, rows: np.ndarray) -> pd.DataFrame:
         cols[table] = [ids[i] for i in idx[table]] if ids else [""] * len(x)
     for key in GEOMETRY_KEYS:
         cols[key] = geometry[key]
+    if "void_fraction" in computed.dielectric:  # foamed dielectric by void fraction
+        cols["void_fraction"] = np.broadcast_to(computed.dielectric["void_fraction"],
+                                                len(x)).astype(float)
     for j, name in enumerate(problem.objectives):
         o = OBJECTIVES[name]
         cols[o.column] = -f[:, j] if o.maximise else f[:, j]

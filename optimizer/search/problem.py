@@ -6,7 +6,9 @@ variable: the *impedance offset* (in [-1, 1] of the tolerance band) takes its pl
 radius is solved from it (:mod:`cablefam.optimizer.search.impedance_target`), so nearly every
 design lands in the impedance band. Integer variables live in ``[-0.5, k - 0.5]`` and are
 rounded column-wise by :class:`CategoricalRounding`, so that the end categories get their fair
-share of samples and evaluation stays vectorized.
+share of samples and evaluation stays vectorized. With ``[search] void_fraction`` the void
+fraction of the foamable dielectrics follows the geometry variables
+(:mod:`cablefam.optimizer.search.void_fraction`).
 """
 
 from __future__ import annotations
@@ -29,7 +31,8 @@ from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS, MemberSpec, Swee
 from cablefam.optimizer.model.tolerance import (common_draws, impedance_yield_analytic,
                                  impedance_yield_monte_carlo)
 from cablefam.optimizer.model.effective_dielectric import resolve_table
-from cablefam.optimizer.search.void_fraction import (VOID_FRACTION, effective_permittivity_range,
+from cablefam.optimizer.search.void_fraction import (FOAM_RECORD_KEYS, VOID_FRACTION,
+                                                     effective_permittivity_range,
                                                      record_columns, with_design_void_fraction)
 from cablefam.optimizer.inputs.wire_size_table import standard_diameters
 from cablefam.physics.stranding import stranded_effective_radius
@@ -219,7 +222,7 @@ class MemberProblem(Problem):
             return None
         records = [self.catalog.get(SLOT_KINDS[table], i, table) for i in ids]
         keys = [k for k, v in records[0].model_dump().items() if isinstance(v, (int, float))
-                and not isinstance(v, bool) and k not in ("void_fraction", "reference_frequency_hz")]
+                and not isinstance(v, bool) and k not in FOAM_RECORD_KEYS]
         out = {k: np.array([getattr(r, k) for r in records], dtype=float) for k in keys}
         if table == "dielectric":  # foamed dielectric by void fraction, dispersion
             extra, self._foamable = record_columns(records, VOID_FRACTION in self.layout.bounds)

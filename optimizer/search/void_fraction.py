@@ -18,6 +18,8 @@ from cablefam.optimizer.model.effective_dielectric import (FOAM_KEY, REFERENCE_F
 
 #: Name of the decision variable (and of the front column, which evaluate writes).
 VOID_FRACTION = "void_fraction"
+#: Optional record keys that :func:`record_columns` turns into table columns.
+FOAM_RECORD_KEYS = (FOAM_KEY, REFERENCE_FREQUENCY_KEY)
 
 
 def record_columns(records, searched: bool) -> tuple[dict[str, np.ndarray], np.ndarray]:

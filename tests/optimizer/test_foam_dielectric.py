@@ -245,3 +245,13 @@ def test_sheet_frequency_response_uses_the_dispersive_values(tmp_path):
                                    one["attenuation_db_per_100m"][0], rtol=1e-12)
     # foam lowers the dielectric loss and the capacitance, so the loss over frequency
     assert (disp["attenuation_20c_db_per_100m"] < plain["attenuation_20c_db_per_100m"]).all()
+
+
+def test_evaluated_rows_carry_the_void_fraction(tmp_path):
+    from cablefam.optimizer.batch.sweep import run_sweep
+
+    sweep = load_sweep(write_sweep(tmp_path))
+    run = run_sweep(sweep, tmp_path / "runs", record_evaluated=True)
+    df = pq.read_table(run / "evaluated.parquet").to_pandas()
+    assert df["void_fraction"].between(0.0, 0.7).all()
+    assert (df.loc[df["dielectric"] == "eptfe", "void_fraction"] == 0.5).all()

@@ -62,7 +62,7 @@ def test_kramers_kronig(f0):
     tail = loss(1e18) * 1e18 / 1e18  # int_X^inf x (c/x) / x^2 dx = c/X with eps'' = c/x
     kk = 2.0 / np.pi * (near + far + tail)
     direct = dispersion.wideband_debye_permittivity(f0, eps_inf, delta).real - eps_inf
-    np.testing.assert_allclose(kk, direct, rtol=1e-6)
+    np.testing.assert_allclose(kk, direct, rtol=1e-9)
 
 
 def test_against_scikit_rf():
