@@ -50,8 +50,13 @@ UPPER_CORNER_HZ = 1.0e12
 
 
 def _shape_function(f, f1, f2):
-    """F(f) = ln((f2 + j f)/(f1 + j f)) / ln(f2/f1) [-] (complex)."""
-    return np.log((f2 + 1j * f) / (f1 + 1j * f)) / np.log(f2 / f1)
+    """F(f) = ln((f2 + j f)/(f1 + j f)) / ln(f2/f1) [-] (complex), from real parts:
+    ln|.| = ln((f2^2 + f^2)/(f1^2 + f^2)) / 2, arg = atan(f/f2) - atan(f/f1)."""
+    f = np.asarray(f, dtype=float)
+    scale = 1.0 / np.log(np.asarray(f2, dtype=float) / f1)
+    real = 0.5 * np.log((f2 * f2 + f * f) / (f1 * f1 + f * f)) * scale
+    imag = (np.arctan(f / f2) - np.arctan(f / f1)) * scale
+    return real + 1j * imag
 
 
 def wideband_debye_parameters(relative_permittivity, loss_tangent, reference_frequency,

@@ -134,9 +134,16 @@ def foam_permittivity_loss_tangent(solid_permittivity, solid_loss_tangent, void_
     v = _void(void_fraction)
     eps_s = np.asarray(solid_permittivity, dtype=float)
     tan_s = np.asarray(solid_loss_tangent, dtype=float)
-    mixed = looyenga_permittivity(eps_s * (1.0 - 1j * tan_s), v)
-    eps = np.where(v == 0.0, eps_s, mixed.real)
-    tan = np.where(v == 0.0, tan_s, -mixed.imag / mixed.real)
+    # the complex rule in real arithmetic (faster than complex powers): the principal cube root
+    # of eps_s (1 - j tan_s) = r e^{-j theta} is r^(1/3) e^{-j theta/3}; mixed with v,
+    # X - jY, and cubed: X^3 - 3 X Y^2 - j (3 X^2 Y - Y^3)
+    theta = np.arctan(tan_s)
+    root = np.cbrt(eps_s * np.hypot(1.0, tan_s))
+    x = (1.0 - v) * root * np.cos(theta / 3.0) + v
+    y = (1.0 - v) * root * np.sin(theta / 3.0)
+    real = x * (x * x - 3.0 * y * y)
+    eps = np.where(v == 0.0, eps_s, real)
+    tan = np.where(v == 0.0, tan_s, y * (3.0 * x * x - y * y) / real)
     return eps, tan
 
 

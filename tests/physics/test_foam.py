@@ -110,3 +110,12 @@ def test_void_fraction_out_of_range_raises():
         foam.looyenga_permittivity(2.25, 1.0)
     with pytest.raises(ValueError, match="void_fraction"):
         foam.foam_density(920.0, -0.1)
+
+
+def test_real_arithmetic_form_equals_the_complex_rule():
+    rng = np.random.default_rng(0)
+    v, e, t = rng.uniform(0, 0.95, 1000), rng.uniform(1.5, 10, 1000), rng.uniform(0, 0.5, 1000)
+    mixed = foam.looyenga_permittivity(e * (1 - 1j * t), v)
+    eps, tan = foam.foam_permittivity_loss_tangent(e, t, v)
+    np.testing.assert_allclose(eps, mixed.real, rtol=1e-13)
+    np.testing.assert_allclose(tan, -mixed.imag / mixed.real, rtol=1e-13)
