@@ -23,21 +23,24 @@ Loss: the same rule applied to the complex permittivity
 :math:`-\mathrm{Im}\,\varepsilon_{eff} / \mathrm{Re}\,\varepsilon_{eff}` (to first order
 :math:`\tan\delta_s (1 - v)\varepsilon_s^{1/3} / \varepsilon_{eff}^{1/3}`).
 
-Density: :math:`(1 - v)\rho_s` (the gas's mass, 1.2 kg/m^3 for air, is left out: below
-0.3 % of the foam's mass for v <= 0.7 and a polymer of 900 kg/m^3).
+Density: :math:`(1 - v)\rho_s` (the gas's mass, 1.2 kg/m^3 for air, is left out: about
+0.3 % of the foam's mass at v = 0.7 and a polymer of 900 kg/m^3).
 
 Thermal conductivity: the Maxwell-Eucken rule with the polymer as the continuous phase and the
-gas cells dispersed in it ([3]_, [4]_), the realistic model of closed-cell foam in [5]_; it is
-the Hashin-Shtrikman upper bound of the conductivity, so the lowest thermal resistivity any
-isotropic arrangement can have: radiation and convection in the cells are neglected.
+gas cells dispersed in it ([3]_, [4]_; form ME1 of [5]_), the rule the catalogs' foamed grades
+were derived with. It is the Hashin-Shtrikman upper bound of the conductivity of an isotropic
+mixture, so the lowest thermal resistivity: [5]_ places closed-cell ("external porosity")
+materials between it and the effective-medium value, so the temperature rise of a foamed
+design is an optimistic estimate (radiation and convection in the cells neglected).
 
 Dielectric strength: a conservative rule of our own, no published rule found (common
 practice, no source): the foam holds no more than the solid, and no more than the average field
-at which the field inside a spherical gas cell, :math:`3\varepsilon_{eff}/(2\varepsilon_{eff}
-+ 1)` times the average field (a dielectric sphere in a uniform field, Sec. 4.4 of [8]_,
-applied to a gas cell in the foam), reaches the uniform-field breakdown strength of the gas.
-This is the inception field of partial discharges in the cells; cells much smaller than a
-millimetre break down only at higher fields (Paschen), so the rule errs on the safe side.
+at which the field inside a spherical gas cell, :math:`3\varepsilon_s/(2\varepsilon_s + 1)`
+times the field around it (a dielectric sphere in a uniform field, Sec. 4.4 of [8]_; the cell's
+surroundings taken as the solid polymer, which gives the larger factor), reaches the
+uniform-field breakdown strength of the gas. This is the inception field of partial discharges
+in the cells; cells much smaller than a millimetre break down only at higher fields (Paschen),
+so the rule errs on the safe side.
 
 References
 ----------
@@ -178,18 +181,29 @@ def foam_thermal_resistivity(solid_thermal_resistivity, void_fraction,
     return np.where(v == 0.0, rs, foam)
 
 
-def foam_dielectric_strength(solid_strength, void_fraction, foam_permittivity,
+def foam_dielectric_strength(solid_strength, void_fraction, solid_permittivity,
                              gas_breakdown_field=AIR_BREAKDOWN_FIELD):
     r"""Conservative dielectric strength of a foam [V m^-1] (common practice, no source).
 
-    .. math:: E_{foam} = \min\left(E_s,\; E_g \frac{2\varepsilon_{eff} + 1}
-              {3\varepsilon_{eff}}\right) \quad (v > 0)
+    .. math:: E_{foam} = \min\left(E_s,\; E_g \frac{2\varepsilon_s + 1}
+              {3\varepsilon_s}\right) \quad (v > 0)
 
     the average field at which the field in a spherical gas cell reaches the gas's breakdown
     strength ``gas_breakdown_field``; see the module notes. The solid's value where ``v = 0``.
+
+    Parameters
+    ----------
+    solid_strength : array_like
+        Dielectric strength of the solid polymer [V m^-1].
+    void_fraction : array_like
+        [-], in [0, 1).
+    solid_permittivity : array_like
+        Real relative permittivity of the solid polymer [-].
+    gas_breakdown_field : array_like, optional
+        [V m^-1] (default: air, :data:`AIR_BREAKDOWN_FIELD`).
     """
     v = _void(void_fraction)
     es = np.asarray(solid_strength, dtype=float)
-    eps = np.asarray(foam_permittivity, dtype=float)
+    eps = np.asarray(solid_permittivity, dtype=float)
     inception = gas_breakdown_field * (2.0 * eps + 1.0) / (3.0 * eps)
     return np.where(v == 0.0, es, np.minimum(es, inception))

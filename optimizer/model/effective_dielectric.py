@@ -62,7 +62,7 @@ def resolve_table(dielectric: dict, frequency_hz) -> dict:
                 table["thermal_resistivity_k_m_per_w"], v)
         if "dielectric_strength_v_per_m" in table:
             table["dielectric_strength_v_per_m"] = foam.foam_dielectric_strength(
-                table["dielectric_strength_v_per_m"], v, eps)
+                table["dielectric_strength_v_per_m"], v, eps_solid)
     table["relative_permittivity"] = eps
     table["loss_tangent"] = tan
     return table
