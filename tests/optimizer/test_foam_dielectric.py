@@ -255,3 +255,22 @@ def test_evaluated_rows_carry_the_void_fraction(tmp_path):
     df = pq.read_table(run / "evaluated.parquet").to_pandas()
     assert df["void_fraction"].between(0.0, 0.7).all()
     assert (df.loc[df["dielectric"] == "eptfe", "void_fraction"] == 0.5).all()
+
+
+def test_bad_catalog_void_fraction_names_file_and_key(tmp_path, cli):
+    path = tmp_path / "foam.toml"
+    path.write_text(FOAM_CATALOG.replace("void_fraction = 0.5", "void_fraction = 1.2"))
+    code, _, err = cli("catalog", "check", path)
+    assert code == 2 and str(path) in err and "void_fraction = 1.2" in err
+    assert "Traceback" not in err
+
+
+def test_equal_bounds_fix_the_void_fraction(tmp_path):
+    sweep = load_sweep(write_sweep(tmp_path, bounds="[0.4, 0.4]"))
+    problem = MemberProblem(sweep, sweep.spec.member[0], "foam-test")
+    assert "void_fraction" not in problem.layout.variables
+    lo, hi = problem.bounds()
+    x = lo + (hi - lo) * np.random.default_rng(4).random((200, problem.layout.n_var))
+    values, _, idx = problem.evaluate_designs(problem.make_repair()._do(problem, x))
+    pe = idx["dielectric"] == problem.layout.material_ids["dielectric"].index("pe")
+    assert (values["void_fraction"][pe] == 0.4).all() and (values["void_fraction"][~pe] == 0.5).all()
