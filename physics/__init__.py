@@ -23,6 +23,10 @@ Modules, one per physical area:
 - :mod:`cablefam.physics.units` -- the unit conversions used at the edges.
 - :mod:`cablefam.physics.constants` -- physical constants and references, each defined once.
 - :mod:`cablefam.physics.hankel_series` -- large-argument Bessel series of the internal impedances.
+- :mod:`cablefam.physics.foam` -- foamed dielectrics by void fraction (Looyenga permittivity and
+  loss, density, Maxwell-Eucken heat conduction, a conservative strength).
+- :mod:`cablefam.physics.dispersion` -- wideband Debye (Djordjevic-Sarkar) dispersion fitted at one
+  frequency.
 
 Every function broadcasts over numpy arrays of any shape, so one call evaluates a whole
 population of designs. Nothing here does I/O or keeps state.
