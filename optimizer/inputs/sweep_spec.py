@@ -161,6 +161,9 @@ class MemberSpec(Record):
     single_mode_margin: Annotated[float, Field(ge=0.0)] = 1.0
     min_shield_skin_depths: Annotated[float, Field(ge=0.0)] = 2.0
     min_impedance_yield: Annotated[float, Field(gt=0.0, le=1.0)] | None = None
+    # ratings on the safe side: standing wave (power_w is the delivered power) and sun
+    vswr: Annotated[float, Field(ge=1.0, le=1e3)] = 1.0
+    solar_irradiance_w_per_m2: Annotated[float, Field(ge=0, le=1500.0)] = 0.0
 
     @field_validator("name")
     @classmethod
