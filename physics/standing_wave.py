@@ -165,8 +165,8 @@ def matched_line_squares(r, x, g, b):
     (Eq. 2.7 of [1]_ in the module notes).
     """
     r, x, g, b = (np.asarray(v, dtype=float) for v in (r, x, g, b))
-    z_mod = np.hypot(r, x)
-    y_mod = np.hypot(g, b)
+    z_mod = np.sqrt(r * r + x * x)  # per-metre parameters: far from over- or underflow
+    y_mod = np.sqrt(g * g + b * b)
     z0 = np.sqrt(z_mod / y_mod)
     cos_phi = np.sqrt(0.5 * (1.0 + (r * g + x * b) / (z_mod * y_mod)))
     re_z0 = z0 * cos_phi

@@ -48,7 +48,9 @@ from cablefam.physics.thermal_resistances import surface_temperature_rise_free_a
 def surface_and_standing_wave_parts(q, t1, de):
     """Per-design constants of :func:`hottest_section` from flat, checked inputs ``q``
     (:class:`cablefam.physics.thermal_inputs.CoaxThermalInputs`), the dielectric's ``t1``
-    [K m W^-1] and the outer diameter ``de`` [m]; a dict of 1-D arrays."""
+    [K m W^-1] and the outer diameter ``de`` [m]; a dict of 1-D arrays, holding only the
+    parts that some design needs (matched, IEC surface and no sun: none)."""
+    parts = {}
     average, ripple = standing_wave_heat_factors(q.vswr)
     if np.any(ripple > 0.0):
         # TEM phase constant omega sqrt(mu0 eps) and the centre conductor's axial conductance
@@ -58,16 +60,20 @@ def surface_and_standing_wave_parts(q, t1, de):
             area = area * strand_layup(q.inner_strands.astype(int)).area_ratio
         conductance = metal_thermal_conductivity(q.inner_resistivity_20c) * area
         ripple = ripple * standing_wave_smoothing(beta, conductance, t1)
-    return {"sw_high": average + ripple, "sw_low": average - ripple,
-            "emissivity": q.surface_emissivity,
-            "solar_w": solar_heat(de, q.solar_irradiance, q.solar_absorption)}
+        parts.update(sw_high=average + ripple, sw_low=average - ripple)
+    if np.any(q.surface_emissivity > 0.0):
+        parts["emissivity"] = q.surface_emissivity
+    solar = solar_heat(de, q.solar_irradiance, q.solar_absorption)
+    if np.any(solar > 0.0):
+        parts["solar_w"] = solar
+    return parts
 
 
 def _surface_rise(k, heat_out):
     """Surface rise above ambient [K] for the heat leaving the surface, per surface model."""
     rise = surface_temperature_rise_free_air(heat_out, k["de"], k["h"])
-    grey = k["emissivity"] > 0.0
-    if grey.any():
+    if "emissivity" in k:
+        grey = k["emissivity"] > 0.0
         rise = np.where(grey, surface_temperature_rise_still_air(
             heat_out, k["de"], np.where(grey, k["emissivity"], 1.0), k["ambient_c"]), rise)
     return rise
@@ -91,20 +97,21 @@ def hottest_section(k, w_i, w_s, w_d):
         ``w_i, w_s, w_d, heat`` at the section of the larger total [W m^-1], the surface rise
         [K], the shield and the centre-conductor temperatures [degC] (module notes).
     """
-    high, low = k["sw_high"], k["sw_low"]
-    i_a, s_a, d_a = w_i * high, w_s * high, w_d * low  # largest current
-    heat_a = i_a + s_a + d_a
-    inner_a = i_a + 0.5 * d_a
-    if np.array_equal(high, low):
-        w_i, w_s, w_d, heat, inner = i_a, s_a, d_a, heat_a, inner_a
+    if "sw_high" not in k:  # matched
+        heat = w_i + w_s + w_d
+        inner = w_i + 0.5 * w_d
     else:
+        high, low = k["sw_high"], k["sw_low"]
+        i_a, s_a, d_a = w_i * high, w_s * high, w_d * low  # largest current
+        heat_a = i_a + s_a + d_a
+        inner_a = i_a + 0.5 * d_a
         i_b, s_b, d_b = w_i * low, w_s * low, w_d * high  # largest voltage
         heat_b = i_b + s_b + d_b
         at_a = heat_a >= heat_b
         w_i, w_s, w_d = (np.where(at_a, x, y) for x, y in ((i_a, i_b), (s_a, s_b), (d_a, d_b)))
         heat = np.maximum(heat_a, heat_b)
         inner = np.maximum(inner_a, i_b + 0.5 * d_b)
-    rise_s = _surface_rise(k, heat + k["solar_w"])
+    rise_s = _surface_rise(k, heat + k["solar_w"] if "solar_w" in k else heat)
     new_s = k["ambient_c"] + heat * k["t3"] + rise_s
     new_c = new_s + inner * k["t1"]
     return w_i, w_s, w_d, heat, rise_s, new_s, new_c
