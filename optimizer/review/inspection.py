@@ -102,6 +102,10 @@ def format_report(result: Inspection) -> str:
     if o.power_w is not None:
         op.append(f"CW power {engineering(o.power_w, 'W')}")
     op.append(f"ambient {o.ambient_c:g} degC")
+    if o.vswr != 1.0:  # ratings on the safe side: standing wave, sun
+        op.append(f"VSWR {o.vswr:g} (power delivered; hottest sections, voltage maximum)")
+    if o.solar_irradiance_w_per_m2:
+        op.append(f"sun {o.solar_irradiance_w_per_m2:g} W/m^2")
     lines.append("operating   " + ", ".join(op))
     if o.power_w is not None:
         lines.append("            (line quantities at the operating temperatures)")
