@@ -65,7 +65,11 @@ def _field_factor(d, op):
 
 def field_quantities(d, op, a_el, lam) -> dict:
     """``peak_e_field_v_per_m`` and ``max_peak_voltage_v`` with the strand crowns and the
-    standing wave's voltage maximum (each only where its inputs are given)."""
+    standing wave's voltage maximum (each only where its inputs are given).
+
+    An offset stranded conductor takes the product of the offset's crowding factor and the
+    crown factor: the crowns raise the field locally on whichever side is nearest the shield
+    (the crown factor itself is that of a concentric lay-up)."""
     out = {}
     factor = _field_factor(d, op)
     b = d.dielectric_radius
