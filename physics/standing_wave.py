@@ -40,9 +40,11 @@ Hot spot or length average
 
     so the hot spot (:math:`s \to 1`) applies where a quarter wavelength is long against the
     thermal length and the length average (:math:`s \to 0`) where it is short.
-    :func:`standing_wave_smoothing` takes :math:`L_{th}` of the centre conductor alone against
-    the dielectric's :math:`T_1` (the smallest conductance and the smallest resistance of the
-    cable's network, hence the shortest thermal length and the least smoothing: conservative).
+    The rating takes :math:`L_{th}` of the centre conductor alone (its own metal, no help from
+    the shield) against the dielectric's :math:`T_1` alone. A solid-tube shield has the larger
+    axial conductance and sees the larger external resistance :math:`T_3 + T_4`, so this is
+    the shortest thermal length of the cable's network and gives the least smoothing: the rule
+    errs on the side of the hot spot where unsure.
     The metal's thermal conductivity comes from its resistivity by the Wiedemann-Franz law
     (:func:`metal_thermal_conductivity`).
 

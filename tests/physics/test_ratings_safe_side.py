@@ -182,6 +182,18 @@ def test_still_air_heat_loss_by_hand():
     assert surface_temperature_rise_still_air(0.0, dia, eps, amb) == 0.0
 
 
+def test_still_air_surface_rise_inverts_the_heat_loss_everywhere():
+    # identity over six decades of heat, 1 to 50 mm, emissivity 0.01 to 1, -40 to 60 degC
+    rng = np.random.default_rng(1)
+    n = 20000
+    w = 10 ** rng.uniform(-6, 4, n)
+    dia = 10 ** rng.uniform(-3, -1.3, n)
+    eps = 10 ** rng.uniform(-2, 0, n)
+    amb = rng.uniform(-40, 60, n)
+    rise = surface_temperature_rise_still_air(w, dia, eps, amb)
+    np.testing.assert_allclose(heat_loss_still_air(rise, dia, eps, amb), w, rtol=1e-12)
+
+
 def test_bare_bright_metal_runs_hotter_than_the_black_surface_constants():
     # no jacket (d = c): IEC black-surface constants unless an emissivity is given
     kw = dict(d=CABLE["c"])
