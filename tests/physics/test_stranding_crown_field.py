@@ -4,8 +4,8 @@ Recomputed independently of the module's multipole solver by a charge-simulation
 for this test: every strand of the lay-up (centre and all layers, the slits left open) is an
 equipotential carrying m line charges on a circle of 0.7 of its radius; the charges (total 1)
 and the common potential V are fitted by least squares to u = V at 2m points on each strand's
-surface (the lay-up's 6-fold symmetry reduces the unknowns to one strand per orbit). The potential u = sum q ln|z - z_j| ~ ln|z| at infinity, so exp(V) is the
-logarithmic capacity (the effective radius, T. Ransford, Potential Theory in the Complex Plane,
+surface (the lay-up's 6-fold symmetry reduces the unknowns to one strand per orbit). The
+potential u = sum q ln|z - z_j| ~ ln|z| at infinity, so exp(V) is the logarithmic capacity (the effective radius, T. Ransford, Potential Theory in the Complex Plane,
 CUP 1995, Ch. 5) and the crown factor is exp(V) |grad u| at the crown of an outer strand.
 
 Mesh study (charges per strand m -> crown factor, d = 1), run for this test:
