@@ -65,6 +65,7 @@ class OperatingPoint:
     vswr: float | np.ndarray = 1.0
     """Voltage standing-wave ratio (``power_w`` is then the delivered power)."""
     solar_irradiance_w_per_m2: float | np.ndarray = 0.0
+    """Direct solar radiation on the cable [W m^-2] (model/ratings.py)."""
 
 
 def _float_array(value, shape):
