@@ -13,6 +13,9 @@ Modules, one per physical area:
 - :mod:`cablefam.physics.thermal` -- IEC 60287 steady-state temperature rise and power rating
   (re-exports :mod:`~cablefam.physics.thermal_inputs`, :mod:`~cablefam.physics.thermal_resistances`,
   :mod:`~cablefam.physics.thermal_state`, :mod:`~cablefam.physics.thermal_rating`).
+- :mod:`cablefam.physics.standing_wave`, :mod:`cablefam.physics.surface_heat`,
+  :mod:`cablefam.physics.thermal_surface` -- matched-line heat from Re Z0, standing wave (VSWR),
+  a surface of known emissivity in still air, the sun (used by the thermal model).
 - :mod:`cablefam.physics.mass` -- mass, cost, outer diameter and DC loop resistance.
 - :mod:`cablefam.physics.eccentricity` -- offset centre conductor: arccosh impedance, Wheeler loss
   factors, field crowding.

@@ -284,3 +284,36 @@ def peak_field_factor(a, b, offset=0.0):
         r = 2.0 * a * d / (b * b - a * a - d * d)
         g = np.sqrt((1.0 + r) / np.maximum(1.0 - r, SQRT_ARGUMENT_FLOOR))
     return np.where(d == 0.0, 1.0, g)
+
+
+def skin_regime_loss_factor(factor, resistance, dc_resistance):
+    r"""Wheeler's loss factor of an offset line blended from DC to the skin-effect regime [-].
+
+    Parameters
+    ----------
+    factor : array_like
+        Wheeler's factor of the conductor, :math:`F` (:func:`wheeler_loss_factors`) [-].
+    resistance : array_like
+        AC resistance of the conductor in the concentric line, :math:`R(u)` [ohm m^-1].
+    dc_resistance : array_like
+        Its DC resistance :math:`R_\mathrm{dc}` [ohm m^-1], :math:`\le R`.
+
+    Returns
+    -------
+    numpy.ndarray
+        .. math:: F_\mathrm{eff} = 1 + (F - 1)\left(1 - \frac{R_\mathrm{dc}}{R(u)}\right)
+
+        so that :math:`F_\mathrm{eff}R = R + (F - 1)(R - R_\mathrm{dc})`: Wheeler's factor
+        acts on the part of the resistance that the skin effect adds, the uniform DC part is
+        left alone. The weight :math:`1 - R_\mathrm{dc}/R` depends on radius over skin depth
+        :math:`u = a/\delta` only (for a wire: 0 to order :math:`u^4` at DC, :math:`1 -
+        2/u` in the skin-effect regime, Sec. 5.5 of [1]_ of :mod:`cablefam.physics.fields`), so
+        the DC resistance is that of the concentric line and the factor tends to Wheeler's
+        where Wheeler's rule holds (:math:`\delta \ll a`). In between, where the current
+        crowding of the offset line grows with frequency, this blend is a documented rule,
+        not a field solution.
+    """
+    f = np.asarray(factor, dtype=float)
+    r = np.asarray(resistance, dtype=float)
+    weight = 1.0 - np.minimum(np.asarray(dc_resistance, dtype=float) / r, 1.0)
+    return 1.0 + (f - 1.0) * weight

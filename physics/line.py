@@ -17,7 +17,8 @@ import numpy as np
 from cablefam.physics import eccentricity
 from cablefam.physics.eccentricity import impedance_per_geometry_factor  # noqa: F401 (re-export)
 from cablefam.physics.constants import epsilon_0, mu_0
-from cablefam.physics.internal_impedance import (tube_resistance_reactance, wire_dc_resistance,
+from cablefam.physics.internal_impedance import (tube_dc_resistance,
+                                                 tube_resistance_reactance, wire_dc_resistance,
                                                  wire_resistance_reactance)
 from cablefam.physics.propagation import (attenuation_split,  # noqa: F401 (re-exported)
                                           characteristic_impedance,
@@ -203,8 +204,16 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
         r_i = np.where(skin == 1.0, r_i, np.maximum(r_i * skin, r_dc))
         x_i = x_i * skin
     if fixed.inner_loss_factor is not None:
-        r_i, x_i = r_i * fixed.inner_loss_factor, x_i * fixed.inner_loss_factor
-        r_s, x_s = r_s * fixed.shield_loss_factor, x_s * fixed.shield_loss_factor
+        # Wheeler's factors on the skin-effect part only: the DC resistance of an offset line
+        # is that of the concentric one (eccentricity.skin_regime_loss_factor)
+        r_dc_i = wire_dc_resistance(a, inner_resistivity)
+        if fixed.inner_dc_resistance_factor is not None:
+            r_dc_i = r_dc_i * fixed.inner_dc_resistance_factor
+        f_i = eccentricity.skin_regime_loss_factor(fixed.inner_loss_factor, r_i, r_dc_i)
+        f_s = eccentricity.skin_regime_loss_factor(
+            fixed.shield_loss_factor, r_s, tube_dc_resistance(b, c, shield_resistivity))
+        r_i, x_i = r_i * f_i, x_i * f_i
+        r_s, x_s = r_s * f_s, x_s * f_s
     return ConductorImpedances(r_i, x_i, r_s, x_s)
 
 
@@ -230,8 +239,8 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
         Passed to the internal-impedance functions.
     offset : array_like, optional
         Eccentricity of the centre conductor [m]: external L and C from the arccosh form,
-        internal impedances times Wheeler's per-conductor factors
-        (:func:`cablefam.physics.eccentricity.wheeler_loss_factors`; skin-effect regime).
+        internal impedances times Wheeler's per-conductor factors on their skin-effect part
+        (:func:`cablefam.physics.eccentricity.skin_regime_loss_factor`; DC unchanged).
     inner_strands : array_like of int, optional
         Strand count of the centre conductor (1, 7, 19, 37; ``a`` is then its overall
         radius): external L and C use the effective radius of

@@ -63,6 +63,10 @@ estimate: measured radio-frequency resistances of stranded conductors are usuall
 empirical and not given here. Between the DC and the skin-effect regime (skin depth comparable
 with the strand radius) neither factor applies; proximity effect between strands is not modelled.
 
+*Crown field*: the field on the surface of the outer strands is largest at their crowns,
+:data:`CROWN_FIELD_FACTORS` times the field of the smooth conductor of the effective radius
+(same 2-D solution; :func:`stranded_crown_field_factor`).
+
 References
 ----------
 .. [1] T. Ransford, *Potential Theory in the Complex Plane*, London Mathematical Society
@@ -328,3 +332,41 @@ def stranded_skin_effect_factor(n_strands, lay_ratio=DEFAULT_LAY_RATIO):
         For a strand count not in :data:`LAYUPS` or ``lay_ratio <= 0``.
     """
     return strand_layup(n_strands, lay_ratio).skin_effect_factor
+
+
+#: Peak field at the crowns of the outer strands over the field of the smooth conductor of the
+#: effective radius (same charge), for ``LAYUPS``: :math:`a_\mathrm{eff}\max|\nabla u|` on the
+#: contour of the 2-D exterior problem of the module notes (u ~ ln|z|), largest at the crown
+#: (the outermost point) of each outer strand. Computed for this module with the multipole
+#: solver of the module notes (40 multipoles and 400 contour points per period: the values
+#: change by < 1e-8 from 20 to 80 multipoles); recomputed in
+#: tests/physics/test_stranding_crown_field.py by that solver and, independently, by a
+#: charge-simulation solution of every strand with a mesh study.
+CROWN_FIELD_FACTORS = (1.0, 1.3218790, 1.3655477, 1.3803162)
+
+
+def stranded_crown_field_factor(n_strands):
+    r"""Field enhancement at the strand crowns of a stranded centre conductor [-].
+
+    Parameters
+    ----------
+    n_strands : array_like of int
+        Strand count, one of :data:`LAYUPS`.
+
+    Returns
+    -------
+    numpy.ndarray
+        :math:`E_\mathrm{crown}/E_\mathrm{smooth}` (:data:`CROWN_FIELD_FACTORS`): 1 for a solid
+        wire, 1.32 for 7, 1.37 for 19 and 1.38 for 37 strands. Multiply the peak field of the
+        smooth conductor of :func:`stranded_effective_radius`, :math:`V/(a_\mathrm{eff}\Lambda)`,
+        by it. A 2-D value (smooth round strands, the grooves filled with the dielectric, the
+        shield far compared with a strand: its influence is of order :math:`(a_o/b)^{2N}` as for
+        the effective radius); the lay angle, which stretches the crowns along the helix, is
+        not included (it lowers the crown curvature slightly: the factor errs on the safe side).
+
+    Raises
+    ------
+    ValueError
+        For a strand count not in :data:`LAYUPS`.
+    """
+    return np.asarray(CROWN_FIELD_FACTORS)[_layers(n_strands)]

@@ -23,8 +23,11 @@ so that the conductor temperature rise above ambient is
     \Delta\theta_c = \left(W_i + \tfrac{1}{2}W_d\right) T_1
                      + \left(W_i + W_s + W_d\right)\left(T_3 + T_4\right).
 
-The line is matched and carries the CW power :math:`P`; the heat is that of the input end,
-where it is largest: :math:`I = \sqrt{P/|Z_0|}`, :math:`V = \sqrt{P|Z_0|}`. The resistivities
+The line carries the CW power :math:`P`; the heat is that of the input end, where it is
+largest. Matched: :math:`|I|^2 = P/\mathrm{Re}\,Z_0`, :math:`|V| = |Z_0||I|`, so that the heat
+per metre is :math:`2\,\mathrm{Re}(\gamma)P` (:mod:`cablefam.physics.standing_wave`); with a
+standing wave (VSWR) the hottest section of the line
+(:mod:`cablefam.physics.thermal_surface`). The resistivities
 follow the temperatures of their conductors (clause 2.1.1 of [1]_), so the heat and the
 temperatures are solved together by fixed-point iteration.
 
@@ -37,7 +40,9 @@ here (import from :mod:`cablefam.physics.thermal`):
   free-air surface rise;
 - :mod:`cablefam.physics.thermal_state` -- :func:`coax_thermal_state` (the fixed point),
   :class:`ThermalState`;
-- :mod:`cablefam.physics.thermal_rating` -- :func:`max_power` (the thermal rating).
+- :mod:`cablefam.physics.thermal_rating` -- :func:`max_power` (the thermal rating);
+- :mod:`cablefam.physics.thermal_surface` -- standing wave, surface emissivity and sun in a
+  pass (with :mod:`cablefam.physics.standing_wave` and :mod:`cablefam.physics.surface_heat`).
 
 Temperatures are in degrees Celsius where the standard states them so (``*_c`` names);
 temperature differences are in kelvin.

@@ -102,6 +102,18 @@ class CoaxThermalInputs:
     r""":math:`\Lambda` of the effective centre-conductor radius, ``b`` and ``offset`` [-]
     (:func:`cablefam.physics.eccentricity.geometry_factor`), when the caller has it; None:
     :func:`checked_flat_inputs` computes it."""
+    # ratings on the safe side: standing wave, surface emissivity, sun
+    vswr: np.ndarray = 1.0
+    """Voltage standing-wave ratio on the line, >= 1 [-] (1: matched); the power is the
+    delivered (net) power (:mod:`cablefam.physics.standing_wave`)."""
+    surface_emissivity: np.ndarray = 0.0
+    """Total emissivity of the outer surface (jacket, or the shield where ``d == c``), in
+    (0, 1]: natural convection and radiation (:mod:`cablefam.physics.surface_heat`); 0 (the
+    default): the IEC 60287-2-1 free-air constants of a black surface."""
+    solar_irradiance: np.ndarray = 0.0
+    """Intensity of direct solar radiation on the cable :math:`H` [W m^-2], >= 0."""
+    solar_absorption: np.ndarray = 0.0
+    """Absorption coefficient of the outer surface for solar radiation, in [0, 1] [-]."""
 
 
 #: Names of the fields of :class:`CoaxThermalInputs`, in order.
@@ -138,15 +150,15 @@ def checked_flat_inputs(inputs: CoaxThermalInputs, *extra):
         Naming the first input and element that is non-finite or out of range: ``0 < a < b <
         c <= d``, frequency, resistivities, dielectric thermal resistivity and permeabilities
         > 0, ``relative_permittivity >= 1``, ``loss_tangent >= 0``, jacket thermal
-        resistivity finite and > 0 where ``d > c``, resistivities positive at ambient.
+        resistivity finite and > 0 where ``d > c``, resistivities positive at ambient,
+        ``vswr >= 1``, emissivity and solar absorption in [0, 1], irradiance >= 0.
     """
-    given = [getattr(inputs, name) for name in INPUT_FIELDS]
     lam_given = inputs.geometry_factor is not None
-    values = [x for x in given if x is not None] + list(extra)
+    names = tuple(n for n in INPUT_FIELDS if lam_given or n != "geometry_factor")
+    values = [getattr(inputs, name) for name in names] + list(extra)
     arrays = np.broadcast_arrays(*(np.asarray(x, dtype=float) for x in values))
     shape = arrays[0].shape
     flat = [np.array(x, dtype=float).ravel() for x in arrays]
-    names = INPUT_FIELDS if lam_given else INPUT_FIELDS[:-1]
     p = dict(zip(names, flat[:len(names)]))
     for name, x in p.items():
         if name != "jacket_thermal_resistivity":
@@ -169,6 +181,14 @@ def checked_flat_inputs(inputs: CoaxThermalInputs, *extra):
         _checks.require(1.0 + coeff * (p["ambient_c"] - REFERENCE_TEMPERATURE_C) > 0.0,
                         f"{which}_temperature_coefficient",
                         "such that the resistivity at ambient_c stays > 0", coeff)
+    _checks.require(p["vswr"] >= 1.0, "vswr", ">= 1", p["vswr"])
+    _checks.require((p["surface_emissivity"] >= 0.0) & (p["surface_emissivity"] <= 1.0),
+                    "surface_emissivity", "in (0, 1], or 0 for the IEC black-surface constants",
+                    p["surface_emissivity"])
+    _checks.require(p["solar_irradiance"] >= 0.0, "solar_irradiance", ">= 0",
+                    p["solar_irradiance"])
+    _checks.require((p["solar_absorption"] >= 0.0) & (p["solar_absorption"] <= 1.0),
+                    "solar_absorption", "in [0, 1]", p["solar_absorption"])
     if lam_given:
         _checks.require(p["geometry_factor"] > 0.0, "geometry_factor", "> 0",
                         p["geometry_factor"])

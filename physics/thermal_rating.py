@@ -98,7 +98,8 @@ def max_power(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
               dielectric_max_temperature_c, jacket_max_temperature_c=None,
               inner_relative_permeability=1.0, shield_relative_permeability=1.0,
               offset=0.0, inner_strands=1,
-              tolerance_k=1e-4, max_iterations=100, geometry_factor=None):
+              tolerance_k=1e-4, max_iterations=100, geometry_factor=None,
+              vswr=1.0, surface_emissivity=0.0, solar_irradiance=0.0, solar_absorption=0.0):
     r"""Maximum CW power of a matched coax in free air (thermal rating).
 
     Parameters
@@ -126,6 +127,12 @@ def max_power(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
         As in :func:`cablefam.physics.thermal.coax_thermal_state` [-].
     geometry_factor : array_like, optional
         As in :func:`cablefam.physics.thermal.coax_thermal_state` [-].
+    vswr, surface_emissivity, solar_irradiance, solar_absorption : array_like, optional
+        Standing-wave ratio (>= 1; ``power`` is then the delivered power), emissivity of the
+        outer surface (0: IEC black-surface constants), direct solar radiation [W m^-2] and
+        the surface's absorption coefficient; see
+        :class:`cablefam.physics.thermal_inputs.CoaxThermalInputs` and
+        :mod:`cablefam.physics.thermal_surface`.
     tolerance_k, max_iterations : optional
         Passed to the thermal iteration (:func:`cablefam.physics.thermal.coax_thermal_state`).
 
@@ -173,6 +180,6 @@ def max_power(a, b, c, d, frequency, ambient_c, inner_resistivity_20c,
         shield_resistivity_20c, shield_temperature_coefficient, relative_permittivity,
         loss_tangent, dielectric_thermal_resistivity, jacket_thermal_resistivity,
         inner_relative_permeability, shield_relative_permeability, offset, inner_strands,
-        geometry_factor)
+        geometry_factor, vswr, surface_emissivity, solar_irradiance, solar_absorption)
     return power_rating(inputs, dielectric_max_temperature_c, jacket_max_temperature_c,
                         tolerance_k, max_iterations)

@@ -15,12 +15,13 @@ import numpy as np
 
 from cablefam.physics import _checks
 from cablefam.physics.line import LineFixedParts, conductor_impedances, line_fixed_parts
-from cablefam.physics.propagation import characteristic_impedance_modulus
+from cablefam.physics.eccentricity import geometry_factor
+from cablefam.physics.standing_wave import matched_line_squares
 from cablefam.physics.thermal_inputs import (CoaxThermalInputs, checked_flat_inputs,
                                              resistivity_at_temperature, take)
 from cablefam.physics.thermal_resistances import (free_air_heat_transfer_coefficient,
-                                                  insulation_thermal_resistance,
-                                                  surface_temperature_rise_free_air)
+                                                  insulation_thermal_resistance)
+from cablefam.physics.thermal_surface import hottest_section, surface_and_standing_wave_parts
 
 #: Conductor temperature [degC] above which a design is taken as thermally run away (no
 #: steady state worth reporting; every cable material has melted or burnt far below it).
@@ -78,14 +79,17 @@ def _fixed_parts(q: CoaxThermalInputs, power):
     t3[jacket] = insulation_thermal_resistance(q.jacket_thermal_resistivity[jacket],
                                                q.c[jacket], q.d[jacket])
     de = 2.0 * q.d
+    # T1 of an offset centre conductor: the eccentric geometry factor of the overall radius
+    # (the same bipolar solution as the capacitance; exactly ln(b/a) when concentric)
+    t1 = q.dielectric_thermal_resistivity / (2.0 * np.pi) * geometry_factor(q.a, q.b, q.offset)
     return {
         "a": q.a, "b": q.b, "c": q.c, "frequency": q.frequency,
         "omega": 2.0 * np.pi * q.frequency, "power": power, "ambient_c": q.ambient_c,
         "rho_i": q.inner_resistivity_20c, "alpha_i": q.inner_temperature_coefficient,
         "rho_s": q.shield_resistivity_20c, "alpha_s": q.shield_temperature_coefficient,
         "mu_i": q.inner_relative_permeability, "mu_s": q.shield_relative_permeability,
-        "t1": insulation_thermal_resistance(q.dielectric_thermal_resistivity, q.a, q.b),
-        "t3": t3, "de": de, "h": free_air_heat_transfer_coefficient(de),
+        "t1": t1, "t3": t3, "de": de, "h": free_air_heat_transfer_coefficient(de),
+        **surface_and_standing_wave_parts(q, t1, de),
     }
 
 
@@ -115,16 +119,12 @@ def _iterate(q: CoaxThermalInputs, power, theta_c, theta_s, passes, settings, ou
             line, k["mu_i"], k["mu_s"])
         r_i, r_s = z.r_inner, z.r_shield
         inductance = line.l_external + (z.x_inner + z.x_shield) / k["omega"]
-        z0 = characteristic_impedance_modulus(r_i + r_s, inductance, line.g, line.c,
-                                              k["frequency"])
-        current_sq = k["power"] / z0
-        w_i = current_sq * r_i
-        w_s = current_sq * r_s
-        w_d = line.g * k["power"] * z0
-        heat = w_i + w_s + w_d
-        rise_s = surface_temperature_rise_free_air(heat, k["de"], k["h"])
-        new_s = k["ambient_c"] + heat * k["t3"] + rise_s
-        new_c = new_s + (w_i + 0.5 * w_d) * k["t1"]
+        # matched line: P = |I|^2 Re Z0, so that the heat is 2 Re(gamma) P
+        current_sq, voltage_sq = matched_line_squares(r_i + r_s, k["omega"] * inductance,
+                                                      line.g, k["omega"] * line.c)
+        w_i, w_s, w_d, heat, rise_s, new_s, new_c = hottest_section(
+            k, current_sq * k["power"] * r_i, current_sq * k["power"] * r_s,
+            line.g * k["power"] * voltage_sq)
         if np.isnan(new_c).any():  # checked inputs cannot give NaN: a fault upstream
             bad = int(where[np.flatnonzero(np.isnan(new_c))[0]])
             raise FloatingPointError(f"NaN heat from cablefam.physics.line for design element "
@@ -206,7 +206,9 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
                        inner_relative_permeability=1.0, shield_relative_permeability=1.0,
                        offset=0.0, inner_strands=1,
                        tolerance_k=1e-4, max_iterations=100,
-                       runaway_temperature_c=RUNAWAY_TEMPERATURE_C, geometry_factor=None):
+                       runaway_temperature_c=RUNAWAY_TEMPERATURE_C, geometry_factor=None,
+                       vswr=1.0, surface_emissivity=0.0, solar_irradiance=0.0,
+                       solar_absorption=0.0):
     r"""Steady temperatures of a matched coax in free air carrying CW power.
 
     Parameters
@@ -239,6 +241,12 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
     geometry_factor : array_like, optional
         :math:`\Lambda` of the effective centre-conductor radius, ``b`` and ``offset``
         (:func:`cablefam.physics.eccentricity.geometry_factor`) when the caller has it [-].
+    vswr, surface_emissivity, solar_irradiance, solar_absorption : array_like, optional
+        Standing-wave ratio (>= 1; ``power`` is then the delivered power), emissivity of the
+        outer surface (0: IEC black-surface constants), direct solar radiation [W m^-2] and
+        the surface's absorption coefficient; see
+        :class:`cablefam.physics.thermal_inputs.CoaxThermalInputs` and
+        :mod:`cablefam.physics.thermal_surface`.
     tolerance_k : float, optional
         Stop a design when both conductor temperatures change by no more than this between
         passes [K].
@@ -272,8 +280,11 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
        parts that do not depend on temperature (:math:`\Lambda`, :math:`L_e`, :math:`C`,
        :math:`G`, :math:`T_1`, :math:`T_3`, :math:`h`) are computed once, the internal
        impedances (:func:`cablefam.physics.line.conductor_impedances`) every pass;
-    3. :math:`I^2 = P/|Z_0|`, :math:`V^2 = P|Z_0|`, :math:`W_i = I^2R_i`, :math:`W_s = I^2R_s`,
-       :math:`W_d = GV^2`, :math:`W = W_i + W_s + W_d`;
+    3. :math:`I^2 = P/\mathrm{Re}\,Z_0`, :math:`V^2 = P|Z_0|^2/\mathrm{Re}\,Z_0` (so that
+       :math:`W = 2\,\mathrm{Re}(\gamma)P`), :math:`W_i = I^2R_i`, :math:`W_s = I^2R_s`,
+       :math:`W_d = GV^2`, :math:`W = W_i + W_s + W_d`; with VSWR > 1 these at the hottest
+       sections of the standing wave, and the sun's heat added at the surface
+       (:mod:`cablefam.physics.thermal_surface`);
     4. :math:`\Delta\theta_s = (W/(\pi D_e h))^{4/5}`, i.e. :math:`W T_4` with :math:`T_4` of
        clause 4.2.1 of [2]_ (see :func:`surface_temperature_rise_free_air`), :math:`D_e = 2d`;
     5. rating equation of clause 1.4.1.1 of [1]_ with the mapping of the module docstring:
@@ -283,7 +294,10 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
            \theta_c = \theta_{sh} + \left(W_i + \tfrac{1}{2}W_d\right) T_1
 
        with :math:`T_1` (dielectric) and :math:`T_3` (jacket) of clauses 4.1.2 and 4.1.4 of
-       [2]_.
+       [2]_; for an offset centre conductor :math:`T_1 = \rho_T\Lambda/(2\pi)` with the
+       eccentric :math:`\Lambda` of :func:`cablefam.physics.eccentricity.geometry_factor`
+       (overall radius): the dielectric between two isothermal cylinders is the same
+       two-dimensional potential problem as the capacitance.
 
     Starting from ambient, the passes are repeated, on the designs not yet converged only,
     until both temperatures move by no more than ``tolerance_k``. The iteration contracts
@@ -304,5 +318,5 @@ def coax_thermal_state(a, b, c, d, frequency, power, ambient_c, inner_resistivit
         shield_resistivity_20c, shield_temperature_coefficient, relative_permittivity,
         loss_tangent, dielectric_thermal_resistivity, jacket_thermal_resistivity,
         inner_relative_permeability, shield_relative_permeability, offset, inner_strands,
-        geometry_factor)
+        geometry_factor, vswr, surface_emissivity, solar_irradiance, solar_absorption)
     return steady_state(inputs, power, tolerance_k, max_iterations, runaway_temperature_c)

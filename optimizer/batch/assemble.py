@@ -21,7 +21,8 @@ from cablefam.optimizer.search.problem import MemberProblem
 
 #: Operating-point columns copied from the member into every row.
 MEMBER_COLUMNS = ("impedance_ohm", "impedance_tolerance_ohm", "frequency_hz", "power_w",
-                  "peak_voltage_v", "ambient_c", "field_safety_factor")
+                  "peak_voltage_v", "ambient_c", "field_safety_factor",
+                  "vswr", "solar_irradiance_w_per_m2")
 
 
 def design_geometry(designs) -> dict[str, np.ndarray]:

@@ -14,7 +14,7 @@ Keys (a contract: add freely, rename none)::
                  frequency they hold at; see cablefam.optimizer.model.effective_dielectric)
     [jacket]     optional: id or thermal_resistivity_k_m_per_w, max_temperature_c, ...
     [operating]  frequency_hz, peak_voltage_v, current_a, field_safety_factor, power_w,
-                 ambient_c
+                 ambient_c, vswr (default 1), solar_irradiance_w_per_m2 (default 0)
 
 A material table that gives ``id`` takes the record from the catalog; any other keys in the
 table override the catalog's values.
@@ -74,6 +74,9 @@ class Operating(Record):
     field_safety_factor: Annotated[float, Field(ge=1.0)] = 1.0
     power_w: Annotated[float, Field(ge=0)] | None = None
     ambient_c: Temperature = 20.0
+    # ratings on the safe side: standing wave (power_w is the delivered power) and sun
+    vswr: Annotated[float, Field(ge=1.0, le=1e3)] = 1.0
+    solar_irradiance_w_per_m2: Annotated[float, Field(ge=0, le=1500.0)] = 0.0
 
 
 #: The file's top level: the slot tables stay raw here (an ``id`` pulls a catalog record in
@@ -166,5 +169,6 @@ def design_arrays(design: Design):
     o = design.operating
     op = OperatingPoint(frequency_hz=o.frequency_hz, peak_voltage_v=o.peak_voltage_v,
                         current_a=o.current_a, field_safety_factor=o.field_safety_factor,
-                        power_w=o.power_w, ambient_c=o.ambient_c)
+                        power_w=o.power_w, ambient_c=o.ambient_c, vswr=o.vswr,
+                        solar_irradiance_w_per_m2=o.solar_irradiance_w_per_m2)
     return designs, op

@@ -29,6 +29,10 @@ Temperature = Annotated[float, Field(ge=TEMPERATURE_RANGE_C[0], le=TEMPERATURE_R
 Positive = Annotated[float, Field(gt=0)]
 Density = Annotated[float, Field(gt=0, le=25_000)]
 Price = Annotated[float, Field(ge=0)]
+#: Total emissivity of a surface (absent: the IEC 60287-2-1 black-surface constants).
+Emissivity = Annotated[float, Field(gt=0, le=1)]
+#: Absorption coefficient of a surface for solar radiation.
+Absorption = Annotated[float, Field(ge=0, le=1)]
 #: Error type of :func:`rule_error`.
 RULE_ERROR = "rule"
 #: pydantic error types of a value that should have been a table.
@@ -52,6 +56,9 @@ class ConductorMaterial(Record):
     price_per_kg: Price | None = None
     name: str | None = None
     source: str | None = None
+    # ratings on the safe side: a bare outer conductor's surface (used where there is no jacket)
+    surface_emissivity: Emissivity | None = None
+    solar_absorption: Absorption | None = None
 
 
 class DielectricMaterial(Record):
@@ -84,6 +91,9 @@ class JacketMaterial(Record):
     price_per_kg: Price | None = None
     name: str | None = None
     source: str | None = None
+    # ratings on the safe side: surface emissivity (absent: IEC black surface) and sun
+    surface_emissivity: Emissivity | None = None
+    solar_absorption: Absorption | None = None
 
 
 class CatalogConductor(ConductorMaterial):

@@ -174,6 +174,9 @@ class MemberSpec(Record):
     # foamed dielectric by void fraction: limits on the velocity factor and the capacitance
     min_velocity_factor: Annotated[float, Field(gt=0.0, le=1.0)] | None = None
     max_capacitance_f_per_m: Annotated[float, Field(gt=0.0, lt=1e-6)] | None = None
+    # ratings on the safe side: standing wave (power_w is the delivered power) and sun
+    vswr: Annotated[float, Field(ge=1.0, le=1e3)] = 1.0
+    solar_irradiance_w_per_m2: Annotated[float, Field(ge=0, le=1500.0)] = 0.0
 
     @field_validator("name")
     @classmethod

@@ -12,8 +12,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from cablefam.optimizer.model import effective_dielectric
-from cablefam.physics import (eccentricity, fields, line, mass, modes, propagation, stranding,
+from cablefam.optimizer.model import effective_dielectric, ratings
+from cablefam.physics import (eccentricity, line, mass, modes, propagation, stranding,
                               thermal)
 from cablefam.physics.internal_impedance import tube_dc_resistance
 from cablefam.physics.skin import skin_depth
@@ -62,6 +62,10 @@ class OperatingPoint:
     field_safety_factor: float | np.ndarray = 1.0
     power_w: float | np.ndarray | None = None
     ambient_c: float | np.ndarray = 20.0
+    vswr: float | np.ndarray = 1.0
+    """Voltage standing-wave ratio (``power_w`` is then the delivered power)."""
+    solar_irradiance_w_per_m2: float | np.ndarray = 0.0
+    """Direct solar radiation on the cable [W m^-2] (model/ratings.py)."""
 
 
 def _float_array(value, shape):
@@ -258,6 +262,7 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
             inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
             shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
             offset=d.eccentricity, inner_strands=d.inner_strands, geometry_factor=lam,
+            **ratings.thermal_conditions(d, op),
         )
     state = None
     if thermal_ok and op.power_w is not None:
@@ -280,15 +285,9 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
     out["te11_cutoff_hz"] = modes.te11_cutoff_frequency(a_el, b, diel["relative_permittivity"])
     out["te11_cutoff_approx_hz"] = modes.te11_cutoff_frequency_approx(
         a_el, b, diel["relative_permittivity"])
-    # an offset centre conductor: arccosh geometry factor and the field crowding on its near side
-    # (stranded: the smooth conductor of the effective radius; crowns of strands not modelled)
-    if op.peak_voltage_v is not None:
-        out["peak_e_field_v_per_m"] = fields.peak_electric_field(
-            a_el, b, op.peak_voltage_v, offset=d.eccentricity, geometry_factor=lam)
-    if "dielectric_strength_v_per_m" in diel:
-        out["max_peak_voltage_v"] = fields.max_peak_voltage(
-            a_el, b, diel["dielectric_strength_v_per_m"], op.field_safety_factor,
-            offset=d.eccentricity, geometry_factor=lam)
+    # an offset centre conductor: arccosh geometry factor and the field crowding on its near side;
+    # stranded: the crowns of the strands; VSWR: the voltage maximum (model/ratings.py)
+    out.update(ratings.field_quantities(d, op, a_el, lam))
     out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(
         out["dc_resistance_inner_ohm_per_m"] + out["dc_resistance_shield_ohm_per_m"])
 

@@ -15,7 +15,8 @@ from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.run_folder.reader import read_front, run_catalog
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS
 
-_OPERATING = ("frequency_hz", "peak_voltage_v", "power_w", "ambient_c", "field_safety_factor")
+_OPERATING = ("frequency_hz", "peak_voltage_v", "power_w", "ambient_c", "field_safety_factor",
+              "vswr", "solar_irradiance_w_per_m2")
 
 
 def select_row(df, member: str, index: int, catalog: str | None = None):
@@ -56,7 +57,8 @@ def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
         doc[table] = cat.get(kind, mid, f"run {run_dir}").model_dump(exclude_none=True)
         if doc[table].get("foamable") and "void_fraction" in row:  # the search's void fraction
             doc[table]["void_fraction"] = float(row["void_fraction"])
-    doc["operating"] = {k: float(row[k]) for k in _OPERATING if not math.isnan(float(row[k]))}
+    doc["operating"] = {k: float(row[k]) for k in _OPERATING
+                        if k in row and not math.isnan(float(row[k]))}
     return doc, row["catalog"], ids
 
 

@@ -102,6 +102,10 @@ def format_report(result: Inspection) -> str:
     if o.power_w is not None:
         op.append(f"CW power {engineering(o.power_w, 'W')}")
     op.append(f"ambient {o.ambient_c:g} degC")
+    if o.vswr != 1.0:  # ratings on the safe side: standing wave, sun
+        op.append(f"VSWR {o.vswr:g} (power delivered; hottest sections, voltage maximum)")
+    if o.solar_irradiance_w_per_m2:
+        op.append(f"sun {o.solar_irradiance_w_per_m2:g} W/m^2")
     lines.append("operating   " + ", ".join(op))
     if o.power_w is not None:
         lines.append("            (line quantities at the operating temperatures)")
@@ -146,10 +150,11 @@ def profile_table(result: Inspection) -> pd.DataFrame:
     a, b = g.inner_radius_m, g.dielectric_radius_m
     c = b + g.shield_thickness_m
     z0 = v["z0_ohm"]
+    re_z0 = v.get("z0_real_ohm", z0)  # matched line: P = |I|^2 Re Z0, |V| = |Z0| |I|
     current = o.current_a if o.current_a is not None else (
-        math.sqrt(2.0 * o.power_w / z0) if o.power_w else 1.0)
+        math.sqrt(2.0 * o.power_w / re_z0) if o.power_w else 1.0)
     voltage = o.peak_voltage_v if o.peak_voltage_v is not None else (
-        math.sqrt(2.0 * o.power_w * z0) if o.power_w else 1.0)
+        z0 * math.sqrt(2.0 * o.power_w / re_z0) if o.power_w else 1.0)
     r = profile_points(a, b, c, c + g.jacket_thickness_m, v["skin_depth_inner_m"],
                        v["skin_depth_shield_m"])
     args = (r, a, b, c, current, o.frequency_hz, d.conductor.resistivity_ohm_m,

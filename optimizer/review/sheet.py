@@ -251,10 +251,10 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
 
     profile = profile_table(result)
     o = design.operating
-    z0 = values["z0_ohm"]
+    re_z0 = values.get("z0_real_ohm", values["z0_ohm"])  # P = |I|^2 Re Z0
     if o.power_w:
-        note = (f"{o.power_w:g} W CW in a matched line: I = {math.sqrt(2 * o.power_w / z0):.4g} A"
-                " peak")
+        note = (f"{o.power_w:g} W CW in a matched line: "
+                f"I = {math.sqrt(2 * o.power_w / re_z0):.4g} A peak")
     else:
         note = "I = 1 A"
     if o.peak_voltage_v is not None:

@@ -282,7 +282,8 @@ class MemberProblem(Problem):
         m = self.member
         return OperatingPoint(frequency_hz=m.frequency_hz, peak_voltage_v=m.peak_voltage_v,
                               field_safety_factor=m.field_safety_factor, power_w=m.power_w,
-                              ambient_c=m.ambient_c)
+                              ambient_c=m.ambient_c, vswr=m.vswr,
+                              solar_irradiance_w_per_m2=m.solar_irradiance_w_per_m2)
 
     @property
     def yield_in_search(self) -> bool:
