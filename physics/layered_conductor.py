@@ -370,8 +370,9 @@ def inner_surface_impedance(a, resistivity, frequency, relative_permeability,
     r_i, x_i = r_plain, x_plain
     if np.any(clad):
         r1 = core_radius(a, t)
-        r_c, x_c = clad_wire_resistance_reactance(a, r1, resistivity, rho2, frequency,
-                                                  relative_permeability, mu2, method=method)
+        r_c, x_c = clad_wire_resistance_reactance(
+            a, r1, resistivity, rho2, frequency, relative_permeability, mu2,
+            method="exact" if method == "exact" else "auto")
         r_i, x_i = np.where(clad, r_c, r_i), np.where(clad, x_c, x_i)
     rough = np.asarray(surface.roughness_rms, dtype=float) > 0.0
     if np.any(rough):

@@ -15,6 +15,7 @@ import numpy as np
 
 from cablefam.physics import _checks
 from cablefam.physics.line import LineFixedParts, conductor_impedances, line_fixed_parts
+from cablefam.physics.layered_conductor import surface_at_temperature, take_surface
 from cablefam.physics.propagation import characteristic_impedance_modulus
 from cablefam.physics.thermal_inputs import (CoaxThermalInputs, checked_flat_inputs,
                                              resistivity_at_temperature, take)
@@ -105,6 +106,7 @@ def _iterate(q: CoaxThermalInputs, power, theta_c, theta_s, passes, settings, ou
     k = _fixed_parts(q, power)
     line = line_fixed_parts(q.a, q.b, q.frequency, q.relative_permittivity, q.loss_tangent,
                             q.offset, q.inner_strands, q.geometry_factor)
+    surface_i, surface_s = q.inner_surface, q.shield_surface  # layers heat with their conductor
     for it in passes:
         if where.size == 0:
             break
@@ -112,7 +114,9 @@ def _iterate(q: CoaxThermalInputs, power, theta_c, theta_s, passes, settings, ou
             k["a"], k["b"], k["c"], k["frequency"],
             resistivity_at_temperature(k["rho_i"], k["alpha_i"], theta_c),
             resistivity_at_temperature(k["rho_s"], k["alpha_s"], theta_s),
-            line, k["mu_i"], k["mu_s"])
+            line, k["mu_i"], k["mu_s"],
+            inner_surface=surface_at_temperature(surface_i, theta_c),
+            shield_surface=surface_at_temperature(surface_s, theta_s))
         r_i, r_s = z.r_inner, z.r_shield
         inductance = line.l_external + (z.x_inner + z.x_shield) / k["omega"]
         z0 = characteristic_impedance_modulus(r_i + r_s, inductance, line.g, line.c,
@@ -150,6 +154,7 @@ def _iterate(q: CoaxThermalInputs, power, theta_c, theta_s, passes, settings, ou
         if where.size:
             k = {name: x[stay] for name, x in k.items()}
             line = _keep(line, stay)
+            surface_i, surface_s = take_surface(surface_i, stay), take_surface(surface_s, stay)
     return where, theta_c, theta_s
 
 

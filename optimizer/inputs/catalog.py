@@ -86,8 +86,29 @@ def _problems_of_raw(raw: dict, path: Path, sha256: str) -> tuple[list[str], Cat
         spec = CatalogFile.model_validate(raw)
     except ValidationError as exc:
         return validation_problems(exc, str(path), CatalogFile), None
+    problems = _cladding_problems(spec, path)  # clad conductors name another record
+    if problems:
+        return problems, None
     return [], Catalog(name=spec.catalog.name, description=spec.catalog.description, path=path,
                        sha256=sha256, materials={kind: dict(getattr(spec, kind)) for kind in KINDS})
+
+
+def _cladding_problems(spec, path) -> list[str]:
+    """A conductor's ``cladding`` must name an unclad conductor of the same catalog."""
+    conductors = dict(getattr(spec, "conductor", {}) or {})
+    problems = []
+    for mid, record in conductors.items():
+        layer = record.cladding
+        if layer is None:
+            continue
+        if layer not in conductors:
+            known = ", ".join(sorted(conductors))
+            problems.append(f"{path}: [conductor.{mid}] cladding = {layer!r}: not a conductor "
+                            f"of this catalog (it has: {known})")
+        elif conductors[layer].cladding is not None:
+            problems.append(f"{path}: [conductor.{mid}] cladding = {layer!r}: a layer metal "
+                            "cannot itself be clad")
+    return problems
 
 
 def load_catalog(path) -> Catalog:

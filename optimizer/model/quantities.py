@@ -106,6 +106,12 @@ _ALL = (
     Quantity("dielectric_radius_m", "dielectric radius b", "m"),
     Quantity("shield_thickness_m", "shield thickness", "m"),
     Quantity("jacket_thickness_m", "jacket thickness", "m"),
+    # clad and plated conductors, surface roughness (conductor_layers)
+    Quantity("cladding_thickness_inner_m", "cladding, centre conductor", "m", _LINE,
+             "per wire"),
+    Quantity("cladding_thickness_shield_m", "plating, shield", "m", _LINE, "inner surface"),
+    Quantity("roughness_factor_inner", "roughness factor, centre conductor", "-", _LOSS),
+    Quantity("roughness_factor_shield", "roughness factor, shield", "-", _LOSS),
 )
 
 #: key -> quantity, in report order

@@ -11,7 +11,8 @@ MINIMAL = (DATA / "minimal_catalog.toml").read_text()
 
 
 def test_the_three_bundled_catalogs_are_there():
-    assert [p.name for p in BUNDLED_CATALOGS] == ["baseline.toml", "high-temperature.toml",
+    assert [p.name for p in BUNDLED_CATALOGS] == ["baseline.toml", "clad-conductors.toml",
+                                                   "high-temperature.toml",
                                                    "lightweight.toml"]
 
 
