@@ -274,3 +274,19 @@ def test_clad_records_are_material_choices_in_the_search(tmp_path):
     cu = idx["conductor"] == ids.index("copper")
     assert (computed.inner["cladding_area_fraction"][cu] == 0).all()
     assert (computed.inner["cladding_thickness_m"][cu] == 0).all()
+
+
+def test_impedance_construction_sees_the_cladding(tmp_path):
+    # the solved dielectric radius puts clad designs inside the band as well as copper ones
+    path = tmp_path / "sweep.toml"
+    path.write_text(SWEEP.format(catalog=CLAD))
+    sweep = load_sweep(path)
+    problem = MemberProblem(sweep, sweep.spec.member[0], sweep.catalogs[0].name)
+    lo, hi = problem.layout.lower_upper()
+    x = np.random.default_rng(6).uniform(lo, hi, size=(400, len(lo)))
+    computed, _, idx = problem.designs(x)
+    z0 = evaluate(computed, problem.operating_point())["z0_ohm"]
+    inside = np.abs(z0 - 75.0) <= 3.0
+    ids = problem.layout.material_ids["conductor"]
+    ccs = idx["conductor"] == ids.index("ccs-21")
+    assert ccs.any() and inside[ccs].mean() > 0.95

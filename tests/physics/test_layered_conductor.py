@@ -209,3 +209,53 @@ def test_hammerstad_jensen_factor():
     # monotone between
     k = roughness_factor(np.linspace(0, 5, 51) * delta, delta)
     assert (np.diff(k) > 0).all()
+
+
+# --------------------------------------------------------------------------- thermal iteration
+
+
+def _thermal_inputs(surface, n=3):
+    from cablefam.physics.thermal_inputs import CoaxThermalInputs
+
+    return CoaxThermalInputs(
+        a=np.full(n, 0.5e-3), b=np.full(n, 2.3e-3), c=np.full(n, 2.5e-3), d=np.full(n, 3.2e-3),
+        frequency=np.array([1e6, 5e7, 1e9])[:n], ambient_c=20.0,
+        inner_resistivity_20c=RHO_STEEL, inner_temperature_coefficient=0.005,
+        shield_resistivity_20c=RHO_CU, shield_temperature_coefficient=0.00393,
+        relative_permittivity=2.25, loss_tangent=2e-4, dielectric_thermal_resistivity=3.5,
+        jacket_thermal_resistivity=3.5, inner_relative_permeability=100.0,
+        inner_surface=surface)
+
+
+def test_thermal_state_heats_each_layer_with_its_own_coefficient():
+    from cablefam.physics.layered_conductor import ConductorSurface, surface_at_temperature
+    from cablefam.physics.line import conductor_impedances, line_fixed_parts
+    from cablefam.physics.propagation import characteristic_impedance_modulus
+    from cablefam.physics.thermal import power_rating, steady_state
+    from cablefam.physics.thermal_inputs import resistivity_at_temperature
+
+    t = 0.5e-3 - core_radius(0.5e-3, area_fraction=0.1017)
+    surface = ConductorSurface(t, 0.1017, RHO_CU, 0.00393, 1.0, 0.0)
+    q = _thermal_inputs(surface)
+    state = steady_state(q, np.full(3, 300.0))
+    assert state.converged.all()
+    # at the solved temperatures, I^2 R of the clad conductor is the heat the state reports
+    theta_c = state.conductor_temperature_c
+    fixed = line_fixed_parts(q.a, q.b, q.frequency, 2.25, 2e-4)
+    z = conductor_impedances(
+        q.a, q.b, q.c, q.frequency, resistivity_at_temperature(RHO_STEEL, 0.005, theta_c),
+        resistivity_at_temperature(RHO_CU, 0.00393, state.shield_temperature_c), fixed, 100.0,
+        inner_surface=surface_at_temperature(surface, theta_c))
+    z0 = characteristic_impedance_modulus(
+        z.r_inner + z.r_shield, fixed.l_external + (z.x_inner + z.x_shield) / (
+            2 * np.pi * q.frequency), fixed.g, fixed.c, q.frequency)
+    # the state's heat is that of its last pass (temperatures moved < 1e-4 K since)
+    assert state.heat_inner_w_per_m == pytest.approx(300.0 / z0 * z.r_inner, rel=1e-5)
+    # a layer whose resistivity does not follow its temperature runs cooler
+    cold = steady_state(_thermal_inputs(surface._replace(temperature_coefficient=0.0)),
+                        np.full(3, 300.0))
+    assert (cold.conductor_temperature_c < state.conductor_temperature_c).all()
+    # the power rating carries the layers through its root search
+    rating = power_rating(q, 70.0)
+    plain = power_rating(_thermal_inputs(None), 70.0)
+    assert np.isfinite(rating).all() and (rating > plain).all()
