@@ -23,6 +23,10 @@ Modules, one per physical area:
 - :mod:`cablefam.physics.units` -- the unit conversions used at the edges.
 - :mod:`cablefam.physics.constants` -- physical constants and references, each defined once.
 - :mod:`cablefam.physics.hankel_series` -- large-argument Bessel series of the internal impedances.
+- :mod:`cablefam.physics.layered_conductor` -- clad wires: exact two-layer internal impedance, DC
+  resistance, mass and cost per layer; :mod:`cablefam.physics.conductor_surface` -- a conductor's
+  layer and roughness in the line (planar plating ratio of the shield);
+  :mod:`cablefam.physics.roughness` -- Hammerstad-Jensen roughness factor.
 
 Every function broadcasts over numpy arrays of any shape, so one call evaluates a whole
 population of designs. Nothing here does I/O or keeps state.

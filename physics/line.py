@@ -14,7 +14,7 @@ from typing import NamedTuple
 
 import numpy as np
 
-from cablefam.physics import eccentricity, layered_conductor
+from cablefam.physics import conductor_surface, eccentricity
 from cablefam.physics.eccentricity import impedance_per_geometry_factor  # noqa: F401 (re-export)
 from cablefam.physics.constants import epsilon_0, mu_0
 from cablefam.physics.internal_impedance import (tube_resistance_reactance, wire_dc_resistance,
@@ -186,7 +186,7 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
         From :func:`line_fixed_parts` for the same designs (its conductor factors are used).
     inner_relative_permeability, shield_relative_permeability, method : optional
         As in :func:`line_parameters`.
-    inner_surface, shield_surface : cablefam.physics.layered_conductor.ConductorSurface, optional
+    inner_surface, shield_surface : cablefam.physics.conductor_surface.ConductorSurface, optional
         A clad or plated layer and the surface roughness of each conductor (None: homogeneous
         and smooth, the plain numbers bit for bit); see :func:`line_parameters`.
 
@@ -198,13 +198,13 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
     """
     r_i, x_i = wire_resistance_reactance(a, inner_resistivity, frequency,
                                          inner_relative_permeability, method=method)
-    # --- clad centre conductor and its roughness (layered_conductor); None: homogeneous ---
+    # --- clad centre conductor and its roughness (conductor_surface); None: homogeneous ---
     inner_dc_resistivity = inner_resistivity
     if inner_surface is not None:
-        r_i, x_i = layered_conductor.inner_surface_impedance(
+        r_i, x_i = conductor_surface.inner_surface_impedance(
             a, inner_resistivity, frequency, inner_relative_permeability, inner_surface, r_i,
             x_i, method=method)
-        inner_dc_resistivity = layered_conductor.inner_dc_resistivity(inner_resistivity,
+        inner_dc_resistivity = conductor_surface.inner_dc_resistivity(inner_resistivity,
                                                                       inner_surface)
     # --- end of the clad centre conductor ---
     r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
@@ -215,8 +215,8 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
         # solid wires (factor exactly 1) untouched: the same bits as in an all-solid population
         r_i = np.where(skin == 1.0, r_i, np.maximum(r_i * skin, r_dc))
         x_i = x_i * skin
-    if shield_surface is not None:  # plated shield, roughness (layered_conductor)
-        r_s, x_s = layered_conductor.shield_surface_impedance(
+    if shield_surface is not None:  # plated shield, roughness (conductor_surface)
+        r_s, x_s = conductor_surface.shield_surface_impedance(
             shield_resistivity, frequency, shield_relative_permeability, shield_surface, r_s, x_s)
     if fixed.inner_loss_factor is not None:
         r_i, x_i = r_i * fixed.inner_loss_factor, x_i * fixed.inner_loss_factor
@@ -258,12 +258,12 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
     geometry_factor : array_like, optional
         :math:`\Lambda` of the effective centre-conductor radius, ``b`` and ``offset`` when
         the caller has it already [-] (computed here otherwise).
-    inner_surface, shield_surface : cablefam.physics.layered_conductor.ConductorSurface, optional
+    inner_surface, shield_surface : cablefam.physics.conductor_surface.ConductorSurface, optional
         A surface layer (clad or plated conductor) and the rms roughness of each conductor:
         the centre conductor by the exact two-layer wire
         (:func:`cablefam.physics.layered_conductor.clad_wire_resistance_reactance`; stranded:
         each strand clad), the shield by the planar plating ratio
-        (:func:`cablefam.physics.layered_conductor.planar_layer_impedance_ratio`); roughness
+        (:func:`cablefam.physics.conductor_surface.planar_layer_impedance_ratio`); roughness
         by :func:`cablefam.physics.roughness.roughness_factor`. None: homogeneous and smooth.
 
     Returns

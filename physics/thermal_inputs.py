@@ -16,7 +16,7 @@ import numpy as np
 
 from cablefam.physics import _checks, eccentricity
 from cablefam.physics.constants import REFERENCE_TEMPERATURE_C
-from cablefam.physics.layered_conductor import ConductorSurface, take_surface
+from cablefam.physics.conductor_surface import ConductorSurface, take_surface
 from cablefam.physics.stranding import stranded_effective_radius
 
 

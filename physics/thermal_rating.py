@@ -12,7 +12,7 @@ import numpy as np
 from scipy.optimize import elementwise
 
 from cablefam.physics import _checks
-from cablefam.physics.layered_conductor import ConductorSurface
+from cablefam.physics.conductor_surface import ConductorSurface
 from cablefam.physics.thermal_inputs import (INPUT_FIELDS, SURFACE_FIELDS, CoaxThermalInputs,
                                              checked_flat_inputs, take)
 from cablefam.physics.thermal_state import (RUNAWAY_TEMPERATURE_C, check_iteration_settings,

@@ -15,7 +15,7 @@ import numpy as np
 
 from cablefam.physics import _checks
 from cablefam.physics.line import LineFixedParts, conductor_impedances, line_fixed_parts
-from cablefam.physics.layered_conductor import surface_at_temperature, take_surface
+from cablefam.physics.conductor_surface import surface_at_temperature, take_surface
 from cablefam.physics.propagation import characteristic_impedance_modulus
 from cablefam.physics.thermal_inputs import (CoaxThermalInputs, checked_flat_inputs,
                                              resistivity_at_temperature, take)

@@ -23,9 +23,9 @@ import dataclasses
 
 import numpy as np
 
-from cablefam.physics import layered_conductor, stranding
+from cablefam.physics import conductor_surface, layered_conductor, stranding
 from cablefam.physics.internal_impedance import tube_dc_resistance
-from cablefam.physics.layered_conductor import ConductorSurface
+from cablefam.physics.conductor_surface import ConductorSurface
 from cablefam.physics.roughness import roughness_factor
 from cablefam.physics.skin import skin_depth
 from cablefam.physics.thermal_inputs import resistivity_at_temperature
@@ -156,7 +156,7 @@ def reference_quantities(d, op) -> dict[str, np.ndarray]:
         if _has_layer(d.inner):
             out["dc_resistance_inner_ohm_per_m"] = stranding.stranded_dc_resistance(
                 d.inner_radius, d.inner_strands,
-                layered_conductor.inner_dc_resistivity(rho, s))
+                conductor_surface.inner_dc_resistivity(rho, s))
             out["cladding_thickness_inner_m"] = s.thickness
         delta = np.where(np.asarray(s.thickness) > 0.0,
                          skin_depth(s.resistivity, f_hz, s.relative_permeability),

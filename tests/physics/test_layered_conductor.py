@@ -7,8 +7,8 @@ from scipy.constants import mu_0
 
 from cablefam.physics.internal_impedance import ASYMPTOTIC_MIN_RATIO, wire_resistance_reactance
 from cablefam.physics.layered_conductor import (THICK_LAYER_SKIN_DEPTHS, clad_dc_resistance,
-                                                clad_wire_resistance_reactance, core_radius,
-                                                planar_layer_impedance_ratio)
+                                                clad_wire_resistance_reactance, core_radius)
+from cablefam.physics.conductor_surface import planar_layer_impedance_ratio
 from cablefam.physics.roughness import roughness_factor
 from cablefam.physics.skin import skin_depth, surface_resistance
 
@@ -228,7 +228,7 @@ def _thermal_inputs(surface, n=3):
 
 
 def test_thermal_state_heats_each_layer_with_its_own_coefficient():
-    from cablefam.physics.layered_conductor import ConductorSurface, surface_at_temperature
+    from cablefam.physics.conductor_surface import ConductorSurface, surface_at_temperature
     from cablefam.physics.line import conductor_impedances, line_fixed_parts
     from cablefam.physics.propagation import characteristic_impedance_modulus
     from cablefam.physics.thermal import power_rating, steady_state
