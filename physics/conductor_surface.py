@@ -133,6 +133,14 @@ def inner_surface_impedance(a, resistivity, frequency, relative_permeability,
     has neither layer nor roughness). The roughness factor
     (:func:`cablefam.physics.roughness.roughness_factor`) uses the skin depth of the surface
     metal and multiplies :math:`R` only.
+
+    A stranded conductor (``surface.thickness`` is each strand's layer, ``area_fraction`` its
+    share of each strand): the wire of the overall radius :math:`a` carries that layer on its
+    surface, and inside it an equivalent core that also holds the inner strands' layers, of
+    resistivity :math:`\rho_1' = (1 - f_o)/(1/\rho_{dc} - f_o/\rho_2)` with
+    :math:`f_o = 1 - (1 - t/a)^2` and :math:`\rho_{dc}` the strands' layers in parallel
+    (:func:`inner_dc_resistivity`), so that its DC resistance is that of the strands' metal
+    over the overall circle (a solid clad wire: :math:`f_o = f`, :math:`\rho_1' = \rho_1`).
     """
     rho2 = surface.resistivity
     mu2 = surface.relative_permeability
@@ -141,8 +149,13 @@ def inner_surface_impedance(a, resistivity, frequency, relative_permeability,
     r_i, x_i = r_plain, x_plain
     if np.any(clad):
         r1 = core_radius(a, t)
+        f_strand = np.asarray(surface.area_fraction, dtype=float)
+        f_overall = 1.0 - (r1 / a) ** 2
+        rho_dc = parallel_resistivity(resistivity, rho2, f_strand)
+        rho1 = np.where(np.abs(f_overall - f_strand) > 1e-12,
+                        (1.0 - f_overall) / (1.0 / rho_dc - f_overall / rho2), resistivity)
         r_c, x_c = clad_wire_resistance_reactance(
-            a, r1, resistivity, rho2, frequency, relative_permeability, mu2,
+            a, r1, rho1, rho2, frequency, relative_permeability, mu2,
             method="exact" if method == "exact" else "auto")
         r_i, x_i = np.where(clad, r_c, r_i), np.where(clad, x_c, x_i)
     rough = np.asarray(surface.roughness_rms, dtype=float) > 0.0

@@ -13,9 +13,11 @@ A plated shield and the surface roughness are in :mod:`cablefam.physics.conducto
 (the planar two-layer ratio, the hooks of :func:`cablefam.physics.line.conductor_impedances`).
 
 A stranded clad conductor is taken as made of clad strands, each with the same layer (its
-thickness and area share): the layered impedance of the overall radius with that layer, times
-the stranding factor of :mod:`cablefam.physics.stranding`, never below the DC resistance of the
-strands with their layers in parallel.
+thickness and area share): the layered impedance of the overall radius with that layer over an
+equivalent core that holds the inner strands' layers
+(:func:`cablefam.physics.conductor_surface.inner_surface_impedance`), times the stranding
+factor of :mod:`cablefam.physics.stranding`, never below the DC resistance of the strands with
+their layers in parallel.
 """
 
 from __future__ import annotations

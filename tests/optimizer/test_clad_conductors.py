@@ -290,3 +290,47 @@ def test_impedance_construction_sees_the_cladding(tmp_path):
     ids = problem.layout.material_ids["conductor"]
     ccs = idx["conductor"] == ids.index("ccs-21")
     assert ccs.any() and inside[ccs].mean() > 0.95
+
+
+def test_stranded_clad_conductor_is_made_of_clad_strands(tmp_path):
+    # 7 clad strands: DC resistance of the strands with their layers in parallel; at low
+    # frequency R reaches that DC value (the floor of the stranding model), not the core's
+    from cablefam.physics.stranding import stranded_dc_resistance
+    from cablefam.physics.layered_conductor import parallel_resistivity
+
+    path = write_design(tmp_path, f=10.0)
+    text = path.read_text().replace("jacket_thickness_m = 0.0008",
+                                    "jacket_thickness_m = 0.0008\ninner_strands = 7")
+    path.write_text(text)
+    values = inspect_values(path)
+    rho = parallel_resistivity(1.43e-7, 1.7241e-8, 0.1017)
+    expected = float(stranded_dc_resistance(0.000512, 7, rho))
+    assert values["dc_resistance_inner_ohm_per_m"] == pytest.approx(expected, rel=1e-14)
+    r_shield = values["r_ohm_per_m"] - values["dc_resistance_inner_ohm_per_m"]
+    assert r_shield == pytest.approx(values["dc_resistance_shield_ohm_per_m"], rel=1e-3)
+    # the layer's thickness is that of each strand (strand radius a/3 for 7 strands)
+    assert values["cladding_thickness_inner_m"] == pytest.approx(
+        0.000512 / 3 * (1 - np.sqrt(1 - 0.1017)), rel=1e-12)
+
+
+def test_stranded_layer_thicker_than_a_strand_is_refused(cli, tmp_path):
+    path = write_design(tmp_path, conductor='id = "steel"\n[conductor.cladding]\nid = "copper"\n'
+                                             'thickness_m = 0.0002')
+    path.write_text(path.read_text().replace("jacket_thickness_m = 0.0008",
+                                             "jacket_thickness_m = 0.0008\ninner_strands = 7"))
+    code, out, err = cli("inspect", path)
+    assert code == 2 and "strand radius" in err and "0.0002" in err
+
+
+def test_shield_plating_by_area_fraction(tmp_path):
+    shield = 'id = "copper"\n[shield.cladding]\nid = "silver"\narea_fraction = 0.02'
+    values = inspect_values(write_design(tmp_path, shield=shield, f=1e9))
+    b, c = 0.00234, 0.00234 + 0.0002
+    t = np.sqrt(b * b + 0.02 * (c * c - b * b)) - b
+    assert values["cladding_thickness_shield_m"] == pytest.approx(t, rel=1e-12)
+    rho = 1 / (0.98 / 1.7241e-8 + 0.02 / 1.587e-8)
+    assert values["dc_resistance_shield_ohm_per_m"] == pytest.approx(
+        rho / (np.pi * (c * c - b * b)), rel=1e-12)
+    plain = inspect_values(write_design(tmp_path, shield='id = "copper"', f=1e9, name="p.toml"))
+    # silver plating ~4 um (about two skin depths of silver at 1 GHz): less loss than copper
+    assert values["r_ohm_per_m"] < plain["r_ohm_per_m"]
