@@ -130,6 +130,10 @@ def catalog_table(catalog: Catalog) -> str:
                 props = (f"rho={m.resistivity_ohm_m:.4g} ohm m, "
                          f"alpha={m.temperature_coefficient_per_k:.4g} /K, "
                          f"mu_r={m.relative_permeability:g}, {m.density_kg_per_m3:g} kg/m3")
+                if m.cladding is not None:  # a clad conductor: the values above are its core's
+                    size = (f"{m.cladding_thickness_m * 1e6:g} um" if m.cladding_thickness_m
+                            else f"{100 * m.cladding_area_fraction:g} % of the area")
+                    props = f"core {props}; clad with {m.cladding}, {size}"
             elif kind == "dielectric":
                 props = (f"eps_r={m.relative_permittivity:g}, tan_d={m.loss_tangent:.3g}, "
                          f"E_bd={m.dielectric_strength_v_per_m / 1e6:g} kV/mm, "

@@ -105,3 +105,23 @@ def property_table(records, catalog, where: str) -> dict[str, np.ndarray]:
                 values.append(0.0)
         table[key] = np.array(values, dtype=float)
     return table
+
+
+def inline_layer(record: dict, catalog, where: str) -> dict:
+    """A dumped conductor record with a catalog-style layer (``cladding = "<id>"``) rewritten
+    as an inline ``cladding`` table (the layer metal's keys and its size), for a
+    self-contained design file; other records are returned unchanged."""
+    layer = record.get("cladding")
+    if not isinstance(layer, str):
+        return record
+    out = dict(record)
+    del out["cladding"]
+    metal = _metal(catalog, layer, where, "cladding")
+    thickness = out.pop("cladding_thickness_m", None)
+    fraction = out.pop("cladding_area_fraction", None)
+    if thickness is not None:
+        metal["thickness_m"] = thickness
+    if fraction is not None:
+        metal["area_fraction"] = fraction
+    out["cladding"] = metal
+    return out

@@ -334,3 +334,30 @@ def test_shield_plating_by_area_fraction(tmp_path):
     plain = inspect_values(write_design(tmp_path, shield='id = "copper"', f=1e9, name="p.toml"))
     # silver plating ~4 um (about two skin depths of silver at 1 GHz): less loss than copper
     assert values["r_ohm_per_m"] < plain["r_ohm_per_m"]
+
+
+def test_sweep_front_row_of_a_clad_conductor_round_trips(cli, tmp_path):
+    # a small sweep over the clad catalog; a clad row exported as a design file (layer inline)
+    # gives the front's numbers again
+    import pyarrow.parquet as pq
+
+    from cablefam.optimizer.batch.sweep import run_sweep
+
+    path = tmp_path / "sweep.toml"
+    path.write_text(SWEEP.format(catalog=CLAD).replace("frequency_hz = 1e9",
+                                                       "frequency_hz = 1e8\npower_w = 50"))
+    run_dir = run_sweep(load_sweep(path), tmp_path / "runs")
+    df = pq.read_table(run_dir / "front.parquet").to_pandas()
+    clad = df[df["conductor"].isin(["ccs-21", "cca-15", "tinned-copper"])]
+    assert len(clad) > 0
+    index = int(clad.index[0])
+    code, text, err = cli("design", run_dir, "--member", "drop-75", "--index", index)
+    assert code == 0, err
+    assert "[conductor.cladding]" in text
+    design = tmp_path / "row.toml"
+    design.write_text(text)
+    values = inspect_values(design)
+    row = df.loc[index]
+    for key in ("attenuation_db_per_100m", "cost_per_km", "dc_resistance_inner_ohm_per_m",
+                "cladding_thickness_inner_m"):
+        assert values[key] == pytest.approx(float(row[key]), rel=1e-12), key
