@@ -361,3 +361,35 @@ def test_sweep_front_row_of_a_clad_conductor_round_trips(cli, tmp_path):
     for key in ("attenuation_db_per_100m", "cost_per_km", "dc_resistance_inner_ohm_per_m",
                 "cladding_thickness_inner_m"):
         assert values[key] == pytest.approx(float(row[key]), rel=1e-12), key
+
+
+CLAD_CATALOG_CASES = {
+    "unknown-layer": ('cladding = "gold"\ncladding_area_fraction = 0.1',
+                      ["[conductor.ccs]", "cladding = 'gold'", "not a conductor"]),
+    "layer-itself-clad": ('cladding = "ccs"\ncladding_area_fraction = 0.1',
+                          ["[conductor.ccs]", "cladding = 'ccs'", "cannot itself be clad"]),
+    "no-size": ('cladding = "copper"', ["[conductor.ccs]", "cladding", "exactly one"]),
+    "both-sizes": ('cladding = "copper"\ncladding_area_fraction = 0.1\n'
+                   'cladding_thickness_m = 1e-5', ["[conductor.ccs]", "exactly one"]),
+    "size-without-layer": ("cladding_area_fraction = 0.1",
+                           ["[conductor.ccs]", "cladding_area_fraction = 0.1"]),
+    "fraction-out-of-range": ('cladding = "copper"\ncladding_area_fraction = 0.0',
+                              ["[conductor.ccs]", "cladding_area_fraction = 0.0"]),
+}
+
+
+@pytest.mark.parametrize("case", sorted(CLAD_CATALOG_CASES))
+def test_bad_clad_catalog_record(cli, tmp_path, case):
+    text, pieces = CLAD_CATALOG_CASES[case]
+    base = CLAD.read_text()
+    record = ('\n[conductor.ccs]\nresistivity_ohm_m = 1.43e-7\ntemperature_coefficient_per_k = '
+              '0.005\ndensity_kg_per_m3 = 7870\nprice_per_kg = 1.0\nsource = "test"\n' + text + "\n")
+    i = base.index("[dielectric.solid-pe]")
+    path = tmp_path / "bad.toml"
+    path.write_text(base[:i] + record + "\n" + base[i:])
+    code, out, err = cli("catalog", "check", path)
+    assert code == 2
+    line = err.strip().splitlines()[0]
+    assert str(path) in line
+    for piece in pieces:
+        assert piece in line, (piece, line)
