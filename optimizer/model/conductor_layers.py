@@ -8,7 +8,9 @@ one value or one array per design (absent: homogeneous and smooth; the old numbe
     > 0 it sets the layer, the thickness first);
 ``cladding_resistivity_ohm_m``, ``cladding_temperature_coefficient_per_k``,
 ``cladding_relative_permeability``, ``cladding_density_kg_per_m3``, ``cladding_price_per_kg``
-    the layer metal;
+    the layer metal (a layer without a temperature coefficient takes its conductor's, one
+    without a permeability is non-magnetic, one without density or price leaves the mass and
+    cost to the core's values);
 ``surface_roughness_m``
     rms roughness of the current-carrying surface.
 
@@ -79,12 +81,18 @@ def _shield_layer(d):
     return t, f
 
 
+def _layer_coefficient(table):
+    """The layer's temperature coefficient [K^-1]; a layer given without one takes its
+    conductor's (0 where neither is known: then nothing is heated anyway)."""
+    return table.get("cladding_temperature_coefficient_per_k",
+                     table.get("temperature_coefficient_per_k", 0.0))
+
+
 def _surface(table, t, f):
     return ConductorSurface(
         thickness=t, area_fraction=f,
         resistivity_20c=table.get("cladding_resistivity_ohm_m", table["resistivity_ohm_m"]),
-        temperature_coefficient=table.get("cladding_temperature_coefficient_per_k",
-                                          table.get("temperature_coefficient_per_k", 0.0)),
+        temperature_coefficient=_layer_coefficient(table),
         relative_permeability=table.get("cladding_relative_permeability", 1.0),
         roughness_rms=table.get("surface_roughness_m", 0.0))
 
@@ -110,10 +118,9 @@ def heated(hot, inner_temperature_c, shield_temperature_c):
     tables = {}
     for name, theta in (("inner", inner_temperature_c), ("shield", shield_temperature_c)):
         table = getattr(hot, name)
-        if _has_layer(table) and "cladding_temperature_coefficient_per_k" in table:
+        if _has_layer(table):
             tables[name] = {**table, "cladding_resistivity_ohm_m": resistivity_at_temperature(
-                table["cladding_resistivity_ohm_m"],
-                table["cladding_temperature_coefficient_per_k"], theta)}
+                table["cladding_resistivity_ohm_m"], _layer_coefficient(table), theta)}
     return dataclasses.replace(hot, **tables) if tables else hot
 
 

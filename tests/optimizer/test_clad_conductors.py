@@ -393,3 +393,21 @@ def test_bad_clad_catalog_record(cli, tmp_path, case):
     assert str(path) in line
     for piece in pieces:
         assert piece in line, (piece, line)
+
+
+def test_inline_layer_without_a_catalog(tmp_path):
+    path = tmp_path / "inline.toml"
+    path.write_text(DESIGN.format(catalog="unused", conductor='', shield='', f=1e7, extra="")
+                    .replace('catalog = "unused"\n', "")
+                    .replace("[conductor]\n", '[conductor]\nresistivity_ohm_m = 2.8264e-8\n'
+                             '[conductor.cladding]\nresistivity_ohm_m = 1.7241e-8\n'
+                             'thickness_m = 20e-6\n')
+                    .replace("[shield]\n", "[shield]\nresistivity_ohm_m = 1.7241e-8\n")
+                    .replace('[dielectric]\nid = "solid-pe"', '[dielectric]\n'
+                             'relative_permittivity = 2.25\nloss_tangent = 2e-4')
+                    .replace('[jacket]\nid = "pe"\n', ""))
+    values = inspect_values(path)
+    assert values["cladding_thickness_inner_m"] == pytest.approx(20e-6)
+    f = 1 - (1 - 20e-6 / 0.000512) ** 2
+    assert values["dc_resistance_inner_ohm_per_m"] == pytest.approx(
+        float(clad_dc_resistance(0.000512, 2.8264e-8, 1.7241e-8, f)), rel=1e-12)
