@@ -213,16 +213,18 @@ def clad_wire_resistance_reactance(outer_radius, core_radius_m, core_resistivity
         core_relative_permeability, layer_relative_permeability)))
     shape = r2.shape
     r2, r1, rho1, rho2, f, mu1, mu2 = (x.ravel() for x in (r2, r1, rho1, rho2, f, mu1, mu2))
-    # the two homogeneous ends, which are also the answers where one metal does not matter
-    r_layer, x_layer = wire_resistance_reactance(r2, rho2, f, mu2)
-    r_core, x_core = wire_resistance_reactance(r2, rho1, f, mu1)
     delta1 = skin_depth(rho1, f, mu1)
     delta2 = skin_depth(rho2, f, mu2)
     u1, u2 = r1 / delta2, r2 / delta2
     no_layer = r1 >= r2
     layered = ~no_layer & (r1 > 0.0) & (u2 - u1 < THICK_LAYER_SKIN_DEPTHS)
-    r_out = np.where(no_layer, r_core, r_layer)
-    x_out = np.where(no_layer, x_core, x_layer)
+    r_out = np.empty(r2.shape)
+    x_out = np.empty(r2.shape)
+    # the homogeneous ends, where one metal does not matter: a wire of the other
+    for end, rho, mu in ((no_layer, rho1, mu1), (~no_layer & ~layered, rho2, mu2)):
+        if end.any():
+            r_out[end], x_out[end] = wire_resistance_reactance(r2[end], rho[end], f[end],
+                                                               mu[end])
     if layered.any():
         i = np.flatnonzero(layered)
         ratio_mu_rho = np.sqrt(mu1[i] * rho1[i] / (mu2[i] * rho2[i]))
@@ -240,7 +242,5 @@ def clad_wire_resistance_reactance(outer_radius, core_radius_m, core_resistivity
             ratio[small] = _layer_ratio_exact(x1, x2, zeta[small])
         # (1 + j) s ratio, s = rho2 / (2 pi r2 delta2)
         z = (1.0 + 1.0j) * (rho2[i] / (2.0 * np.pi * r2[i] * delta2[i])) * ratio
-        r_out = np.array(r_out, dtype=float)
-        x_out = np.array(x_out, dtype=float)
         r_out[i], x_out[i] = z.real, z.imag
     return r_out.reshape(shape), x_out.reshape(shape)
