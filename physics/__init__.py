@@ -30,6 +30,10 @@ Modules, one per physical area:
   loss, density, Maxwell-Eucken heat conduction, a conservative strength).
 - :mod:`cablefam.physics.dispersion` -- wideband Debye (Djordjevic-Sarkar) dispersion fitted at one
   frequency.
+- :mod:`cablefam.physics.layered_conductor` -- clad wires: exact two-layer internal impedance, DC
+  resistance, mass and cost per layer; :mod:`cablefam.physics.conductor_surface` -- a conductor's
+  layer and roughness in the line (planar plating ratio of the shield);
+  :mod:`cablefam.physics.roughness` -- Hammerstad-Jensen roughness factor.
 
 Every function broadcasts over numpy arrays of any shape, so one call evaluates a whole
 population of designs. Nothing here does I/O or keeps state.

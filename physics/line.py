@@ -14,7 +14,7 @@ from typing import NamedTuple
 
 import numpy as np
 
-from cablefam.physics import eccentricity
+from cablefam.physics import conductor_surface, eccentricity
 from cablefam.physics.eccentricity import impedance_per_geometry_factor  # noqa: F401 (re-export)
 from cablefam.physics.constants import epsilon_0, mu_0
 from cablefam.physics.internal_impedance import (tube_dc_resistance,
@@ -175,7 +175,8 @@ class ConductorImpedances(NamedTuple):
 
 def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity,
                          fixed: LineFixedParts, inner_relative_permeability=1.0,
-                         shield_relative_permeability=1.0, method="auto"):
+                         shield_relative_permeability=1.0, method="auto",
+                         inner_surface=None, shield_surface=None):
     r"""Internal impedances of the centre conductor and of the shield in the line.
 
     Parameters
@@ -186,6 +187,9 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
         From :func:`line_fixed_parts` for the same designs (its conductor factors are used).
     inner_relative_permeability, shield_relative_permeability, method : optional
         As in :func:`line_parameters`.
+    inner_surface, shield_surface : cablefam.physics.conductor_surface.ConductorSurface, optional
+        A clad or plated layer and the surface roughness of each conductor (None: homogeneous
+        and smooth, the plain numbers bit for bit); see :func:`line_parameters`.
 
     Returns
     -------
@@ -195,14 +199,26 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
     """
     r_i, x_i = wire_resistance_reactance(a, inner_resistivity, frequency,
                                          inner_relative_permeability, method=method)
+    # --- clad centre conductor and its roughness (conductor_surface); None: homogeneous ---
+    inner_dc_resistivity = inner_resistivity
+    if inner_surface is not None:
+        r_i, x_i = conductor_surface.inner_surface_impedance(
+            a, inner_resistivity, frequency, inner_relative_permeability, inner_surface, r_i,
+            x_i, method=method)
+        inner_dc_resistivity = conductor_surface.inner_dc_resistivity(inner_resistivity,
+                                                                      inner_surface)
+    # --- end of the clad centre conductor ---
     r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
                                          shield_relative_permeability, method=method)
     if fixed.inner_skin_effect_factor is not None:
         skin = fixed.inner_skin_effect_factor
-        r_dc = wire_dc_resistance(a, inner_resistivity) * fixed.inner_dc_resistance_factor
+        r_dc = wire_dc_resistance(a, inner_dc_resistivity) * fixed.inner_dc_resistance_factor
         # solid wires (factor exactly 1) untouched: the same bits as in an all-solid population
         r_i = np.where(skin == 1.0, r_i, np.maximum(r_i * skin, r_dc))
         x_i = x_i * skin
+    if shield_surface is not None:  # plated shield, roughness (conductor_surface)
+        r_s, x_s = conductor_surface.shield_surface_impedance(
+            shield_resistivity, frequency, shield_relative_permeability, shield_surface, r_s, x_s)
     if fixed.inner_loss_factor is not None:
         # Wheeler's factors on the skin-effect part only: the DC resistance of an offset line
         # is that of the concentric one (eccentricity.skin_regime_loss_factor)
@@ -220,7 +236,8 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
 def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                     relative_permittivity, loss_tangent, inner_relative_permeability=1.0,
                     shield_relative_permeability=1.0, method="auto", offset=0.0,
-                    inner_strands=1, geometry_factor=None):
+                    inner_strands=1, geometry_factor=None, inner_surface=None,
+                    shield_surface=None):
     r"""R, L, G, C of a coax at frequency :math:`f`, with exact conductor internal impedance.
 
     Parameters
@@ -250,6 +267,13 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
     geometry_factor : array_like, optional
         :math:`\Lambda` of the effective centre-conductor radius, ``b`` and ``offset`` when
         the caller has it already [-] (computed here otherwise).
+    inner_surface, shield_surface : cablefam.physics.conductor_surface.ConductorSurface, optional
+        A surface layer (clad or plated conductor) and the rms roughness of each conductor:
+        the centre conductor by the exact two-layer wire
+        (:func:`cablefam.physics.layered_conductor.clad_wire_resistance_reactance`; stranded:
+        each strand clad), the shield by the planar plating ratio
+        (:func:`cablefam.physics.conductor_surface.planar_layer_impedance_ratio`); roughness
+        by :func:`cablefam.physics.roughness.roughness_factor`. None: homogeneous and smooth.
 
     Returns
     -------
@@ -278,7 +302,8 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
     fixed = line_fixed_parts(a, b, frequency, relative_permittivity, loss_tangent, offset,
                              inner_strands, geometry_factor)
     z = conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity, fixed,
-                             inner_relative_permeability, shield_relative_permeability, method)
+                             inner_relative_permeability, shield_relative_permeability, method,
+                             inner_surface=inner_surface, shield_surface=shield_surface)
     ind = fixed.l_external + (z.x_inner + z.x_shield) / omega
     return LineParameters(r=z.r_inner + z.r_shield, l=ind, g=fixed.g, c=fixed.c,
                           r_inner=z.r_inner, r_shield=z.r_shield)

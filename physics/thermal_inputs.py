@@ -16,6 +16,7 @@ import numpy as np
 
 from cablefam.physics import _checks, eccentricity
 from cablefam.physics.constants import REFERENCE_TEMPERATURE_C
+from cablefam.physics.conductor_surface import ConductorSurface, take_surface
 from cablefam.physics.stranding import stranded_effective_radius
 
 
@@ -114,10 +115,18 @@ class CoaxThermalInputs:
     """Intensity of direct solar radiation on the cable :math:`H` [W m^-2], >= 0."""
     solar_absorption: np.ndarray = 0.0
     """Absorption coefficient of the outer surface for solar radiation, in [0, 1] [-]."""
+    # clad/plated conductors and roughness: each layer follows its conductor's temperature
+    inner_surface: ConductorSurface | None = None
+    """Layer and roughness of the centre conductor (None: homogeneous, smooth)."""
+    shield_surface: ConductorSurface | None = None
+    """Plating and roughness of the shield (None: homogeneous, smooth)."""
 
 
-#: Names of the fields of :class:`CoaxThermalInputs`, in order.
-INPUT_FIELDS = tuple(f.name for f in dataclasses.fields(CoaxThermalInputs))
+#: Fields of :class:`CoaxThermalInputs` that hold a :class:`ConductorSurface` (or None).
+SURFACE_FIELDS = ("inner_surface", "shield_surface")
+#: Names of the array fields of :class:`CoaxThermalInputs`, in order.
+INPUT_FIELDS = tuple(f.name for f in dataclasses.fields(CoaxThermalInputs)
+                     if f.name not in SURFACE_FIELDS)
 #: Fields that must be > 0.
 _POSITIVE = ("frequency", "inner_resistivity_20c", "shield_resistivity_20c",
              "dielectric_thermal_resistivity", "inner_relative_permeability",
@@ -197,9 +206,20 @@ def checked_flat_inputs(inputs: CoaxThermalInputs, *extra):
         if np.any(p["inner_strands"] != 1):
             a_el = stranded_effective_radius(p["a"], p["inner_strands"])
         p["geometry_factor"] = eccentricity.geometry_factor(a_el, p["b"], p["offset"])
-    return shape, CoaxThermalInputs(**p), flat[len(names):]
+    surfaces = {name: _flat_surface(getattr(inputs, name), shape) for name in SURFACE_FIELDS}
+    return shape, CoaxThermalInputs(**p, **surfaces), flat[len(names):]
+
+
+def _flat_surface(surface, shape):
+    """A surface's arrays broadcast to ``shape`` and flattened (copies); None stays None."""
+    if surface is None:
+        return None
+    return ConductorSurface(*(np.array(np.broadcast_to(np.asarray(x, dtype=float), shape),
+                                       dtype=float).ravel() for x in surface))
 
 
 def take(inputs: CoaxThermalInputs, index) -> CoaxThermalInputs:
     """The designs at ``index`` (integer array, boolean mask or slice) of flat inputs."""
-    return CoaxThermalInputs(*(getattr(inputs, name)[index] for name in INPUT_FIELDS))
+    return CoaxThermalInputs(*(getattr(inputs, name)[index] for name in INPUT_FIELDS),
+                             **{name: take_surface(getattr(inputs, name), index)
+                                for name in SURFACE_FIELDS})

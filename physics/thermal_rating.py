@@ -12,7 +12,8 @@ import numpy as np
 from scipy.optimize import elementwise
 
 from cablefam.physics import _checks
-from cablefam.physics.thermal_inputs import (INPUT_FIELDS, CoaxThermalInputs,
+from cablefam.physics.conductor_surface import ConductorSurface
+from cablefam.physics.thermal_inputs import (INPUT_FIELDS, SURFACE_FIELDS, CoaxThermalInputs,
                                              checked_flat_inputs, take)
 from cablefam.physics.thermal_state import (RUNAWAY_TEMPERATURE_C, check_iteration_settings,
                                             solve_flat)
@@ -47,11 +48,18 @@ def power_rating(inputs: CoaxThermalInputs, dielectric_max_temperature_c,
     diel_max, jac_max = diel_max[todo], jac_max[todo]
     has_jac = q.d > q.c
     n_fields = len(INPUT_FIELDS)
-    args = tuple(getattr(q, name) for name in INPUT_FIELDS) + (diel_max, jac_max)
+    # clad/plated conductors: their surface arrays travel with the others through the root search
+    surfaces = [name for name in SURFACE_FIELDS if getattr(q, name) is not None]
+    n_surface = len(ConductorSurface._fields)
+    args = tuple(getattr(q, name) for name in INPUT_FIELDS) + tuple(
+        x for name in surfaces for x in getattr(q, name)) + (diel_max, jac_max)
 
     def excess(x, *arrays):
-        sub = CoaxThermalInputs(*arrays[:n_fields])
-        d_max, j_max = arrays[n_fields:]
+        layers = {name: ConductorSurface(*arrays[n_fields + k * n_surface:
+                                                 n_fields + (k + 1) * n_surface])
+                  for k, name in enumerate(surfaces)}
+        sub = CoaxThermalInputs(*arrays[:n_fields], **layers)
+        d_max, j_max = arrays[-2:]
         state = solve_flat(sub, np.exp(x), tolerance_k, max_iterations, RUNAWAY_TEMPERATURE_C)
         ok = state.converged
         f = np.full(x.shape, _RUNAWAY_EXCESS_K)

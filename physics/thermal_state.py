@@ -17,6 +17,7 @@ from cablefam.physics import _checks
 from cablefam.physics.line import LineFixedParts, conductor_impedances, line_fixed_parts
 from cablefam.physics.eccentricity import geometry_factor
 from cablefam.physics.standing_wave import matched_line_squares
+from cablefam.physics.conductor_surface import surface_at_temperature, take_surface
 from cablefam.physics.thermal_inputs import (CoaxThermalInputs, checked_flat_inputs,
                                              resistivity_at_temperature, take)
 from cablefam.physics.thermal_resistances import (free_air_heat_transfer_coefficient,
@@ -109,6 +110,7 @@ def _iterate(q: CoaxThermalInputs, power, theta_c, theta_s, passes, settings, ou
     k = _fixed_parts(q, power)
     line = line_fixed_parts(q.a, q.b, q.frequency, q.relative_permittivity, q.loss_tangent,
                             q.offset, q.inner_strands, q.geometry_factor)
+    surface_i, surface_s = q.inner_surface, q.shield_surface  # layers heat with their conductor
     for it in passes:
         if where.size == 0:
             break
@@ -116,7 +118,9 @@ def _iterate(q: CoaxThermalInputs, power, theta_c, theta_s, passes, settings, ou
             k["a"], k["b"], k["c"], k["frequency"],
             resistivity_at_temperature(k["rho_i"], k["alpha_i"], theta_c),
             resistivity_at_temperature(k["rho_s"], k["alpha_s"], theta_s),
-            line, k["mu_i"], k["mu_s"])
+            line, k["mu_i"], k["mu_s"],
+            inner_surface=surface_at_temperature(surface_i, theta_c),
+            shield_surface=surface_at_temperature(surface_s, theta_s))
         r_i, r_s = z.r_inner, z.r_shield
         inductance = line.l_external + (z.x_inner + z.x_shield) / k["omega"]
         # matched line: P = |I|^2 Re Z0, so that the heat is 2 Re(gamma) P
@@ -150,6 +154,7 @@ def _iterate(q: CoaxThermalInputs, power, theta_c, theta_s, passes, settings, ou
         if where.size:
             k = {name: x[stay] for name, x in k.items()}
             line = _keep(line, stay)
+            surface_i, surface_s = take_surface(surface_i, stay), take_surface(surface_s, stay)
     return where, theta_c, theta_s
 
 

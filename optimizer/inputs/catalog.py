@@ -86,8 +86,29 @@ def _problems_of_raw(raw: dict, path: Path, sha256: str) -> tuple[list[str], Cat
         spec = CatalogFile.model_validate(raw)
     except ValidationError as exc:
         return validation_problems(exc, str(path), CatalogFile), None
+    problems = _cladding_problems(spec, path)  # clad conductors name another record
+    if problems:
+        return problems, None
     return [], Catalog(name=spec.catalog.name, description=spec.catalog.description, path=path,
                        sha256=sha256, materials={kind: dict(getattr(spec, kind)) for kind in KINDS})
+
+
+def _cladding_problems(spec, path) -> list[str]:
+    """A conductor's ``cladding`` must name an unclad conductor of the same catalog."""
+    conductors = dict(getattr(spec, "conductor", {}) or {})
+    problems = []
+    for mid, record in conductors.items():
+        layer = record.cladding
+        if layer is None:
+            continue
+        if layer not in conductors:
+            known = ", ".join(sorted(conductors))
+            problems.append(f"{path}: [conductor.{mid}] cladding = {layer!r}: not a conductor "
+                            f"of this catalog (it has: {known})")
+        elif conductors[layer].cladding is not None:
+            problems.append(f"{path}: [conductor.{mid}] cladding = {layer!r}: a layer metal "
+                            "cannot itself be clad")
+    return problems
 
 
 def load_catalog(path) -> Catalog:
@@ -109,6 +130,10 @@ def catalog_table(catalog: Catalog) -> str:
                 props = (f"rho={m.resistivity_ohm_m:.4g} ohm m, "
                          f"alpha={m.temperature_coefficient_per_k:.4g} /K, "
                          f"mu_r={m.relative_permeability:g}, {m.density_kg_per_m3:g} kg/m3")
+                if m.cladding is not None:  # a clad conductor: the values above are its core's
+                    size = (f"{m.cladding_thickness_m * 1e6:g} um" if m.cladding_thickness_m
+                            else f"{100 * m.cladding_area_fraction:g} % of the area")
+                    props = f"core {props}; clad with {m.cladding}, {size}"
             elif kind == "dielectric":
                 props = (f"eps_r={m.relative_permittivity:g}, tan_d={m.loss_tangent:.3g}, "
                          f"E_bd={m.dielectric_strength_v_per_m / 1e6:g} kV/mm, "

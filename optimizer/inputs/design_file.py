@@ -31,11 +31,13 @@ from pydantic import Field, ValidationError, create_model, model_validator
 
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.inputs.catalog import Catalog, load_catalog
+from cablefam.optimizer.inputs.cladding import check_layer_fits, layer_numbers
 from cablefam.optimizer.inputs.materials import (DESIGN_RECORDS, ConductorMaterial,
                                                  DielectricMaterial, JacketMaterial, Positive,
                                                  Record, Temperature, read_toml, rule_error,
                                                  validate_record, validation_problems)
 from cablefam.optimizer.model.slots import MATERIAL_SLOTS
+from cablefam.physics.stranding import strand_layup
 
 #: design-file table -> (catalog kind, record model), one entry per material slot
 MATERIAL_TABLES = {s.name: (s.kind, DESIGN_RECORDS[s.kind]) for s in MATERIAL_SLOTS}
@@ -103,6 +105,9 @@ class Design:
     operating: Operating
     material_ids: dict[str, str | None]
     catalog: Catalog | None = None
+    layers: dict[str, dict[str, float]] | None = None
+    """Clad/plated layer and roughness keys of the conductor and shield tables
+    (:func:`cablefam.optimizer.inputs.cladding.layer_numbers`); None: none."""
 
 
 def _material(data: dict, table: str, catalog: Catalog | None, where: str):
@@ -117,6 +122,9 @@ def _material(data: dict, table: str, catalog: Catalog | None, where: str):
                              "`catalog = \"path/to/catalog.toml\"`")
         base = catalog.get(kind, material_id, f"{where}: [{table}]").model_dump(
             exclude_none=True)
+        if "cladding" in data:  # the design's own layer replaces the record's
+            for key in ("cladding", "cladding_thickness_m", "cladding_area_fraction"):
+                base.pop(key, None)
         data = {**base, **data}
     return validate_record(model, data, where, table), material_id
 
@@ -137,8 +145,24 @@ def parse_design(raw: dict, where: str, base_dir: Path) -> Design:
             continue
         records[table], ids[table] = _material(data, table, catalog, where)
     name = spec.name if spec.name is not None else Path(where).stem
+    layers = _layers(records, spec.geometry, catalog, where)
     return Design(name=name, geometry=spec.geometry, operating=spec.operating,
-                  material_ids=ids, catalog=catalog, **records)
+                  material_ids=ids, catalog=catalog, **records, layers=layers)
+
+
+def _layers(records, g: Geometry, catalog, where):
+    """Clad/plated layers of the two conductors, checked against the metal they cover."""
+    strand = g.inner_radius_m / float(strand_layup(g.inner_strands).diameter_ratio)
+    room = {"conductor": (strand, "[geometry] inner_radius_m" if g.inner_strands == 1
+                          else "the strand radius"),
+            "shield": (g.shield_thickness_m, "[geometry] shield_thickness_m")}
+    layers = {}
+    for table, (space, space_key) in room.items():
+        numbers = layer_numbers(records[table], catalog, where, table)
+        check_layer_fits(numbers, space, where, table, space_key)
+        if numbers:
+            layers[table] = numbers
+    return layers or None
 
 
 def load_design(path) -> Design:
@@ -158,12 +182,16 @@ def design_arrays(design: Design):
             exclude_none=True).items() if isinstance(v, (int, float))}
 
     g = design.geometry
+    layers = design.layers or {}
+    inner, shield = table(design.conductor), table(design.shield)
+    inner.update({k: np.array([v]) for k, v in layers.get("conductor", {}).items()})
+    shield.update({k: np.array([v]) for k, v in layers.get("shield", {}).items()})
     designs = Designs(
         inner_radius=np.array([g.inner_radius_m]),
         dielectric_radius=np.array([g.dielectric_radius_m]),
         shield_thickness=np.array([g.shield_thickness_m]),
         jacket_thickness=np.array([g.jacket_thickness_m]),
-        inner=table(design.conductor), shield=table(design.shield),
+        inner=inner, shield=shield,
         dielectric=table(design.dielectric), jacket=table(design.jacket),
         eccentricity=np.array([g.eccentricity_m]), inner_strands=np.array([g.inner_strands]))
     o = design.operating

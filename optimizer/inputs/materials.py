@@ -15,9 +15,9 @@ from __future__ import annotations
 import tomllib
 from pathlib import Path
 from types import UnionType
-from typing import Annotated, Union, get_args, get_origin
+from typing import Annotated, Any, Union, get_args, get_origin
 
-from pydantic import BaseModel, ConfigDict, Field, ValidationError
+from pydantic import BaseModel, ConfigDict, Field, ValidationError, model_validator
 from pydantic_core import PydanticCustomError
 
 from cablefam.optimizer.errors import InputError
@@ -46,6 +46,36 @@ class Record(BaseModel):
     model_config = ConfigDict(extra="forbid", strict=True, frozen=True, allow_inf_nan=False)
 
 
+class CladdingLayer(Record):
+    """A conductor's surface layer in a design file, ``[conductor.cladding]`` /
+    ``[shield.cladding]``: the layer metal (catalog ``id`` and/or inline keys) and exactly one
+    of ``thickness_m`` or ``area_fraction`` (its share of each wire's cross-section)."""
+
+    id: str | None = None
+    resistivity_ohm_m: Annotated[float, Field(gt=0, lt=1e-5)] | None = None
+    temperature_coefficient_per_k: Annotated[float, Field(ge=-0.01, le=0.02)] | None = None
+    relative_permeability: Annotated[float, Field(ge=1.0, le=1e5)] | None = None
+    density_kg_per_m3: Density | None = None
+    price_per_kg: Price | None = None
+    name: str | None = None
+    source: str | None = None
+    thickness_m: Annotated[float, Field(gt=0, lt=1.0)] | None = None
+    area_fraction: Annotated[float, Field(gt=0, lt=1)] | None = None
+
+    @model_validator(mode="after")
+    def _one_size(self):
+        """Exactly one of thickness_m and area_fraction; a metal by id or resistivity."""
+        if (self.thickness_m is None) == (self.area_fraction is None):
+            value = (self.thickness_m, self.area_fraction)
+            raise rule_error("thickness_m" if self.thickness_m is not None else "area_fraction",
+                             value if self.thickness_m is not None else None,
+                             "give exactly one of thickness_m and area_fraction")
+        if self.id is None and self.resistivity_ohm_m is None:
+            raise rule_error("resistivity_ohm_m", None,
+                             "the layer needs a catalog id or its own resistivity_ohm_m")
+        return self
+
+
 class ConductorMaterial(Record):
     """Metal of the centre conductor or of the shield (the shield is a solid tube)."""
 
@@ -59,6 +89,30 @@ class ConductorMaterial(Record):
     # ratings on the safe side: a bare outer conductor's surface (used where there is no jacket)
     surface_emissivity: Emissivity | None = None
     solar_absorption: Absorption | None = None
+    # clad and plated conductors, surface roughness (the record's own keys are the core's)
+    cladding: str | dict[str, Any] | None = None
+    """A catalog id (with cladding_thickness_m or cladding_area_fraction), or in a design file
+    a :class:`CladdingLayer` table (validated when the design is read)."""
+    cladding_thickness_m: Annotated[float, Field(gt=0, lt=1.0)] | None = None
+    cladding_area_fraction: Annotated[float, Field(gt=0, lt=1)] | None = None
+    surface_roughness_m: Annotated[float, Field(ge=0, lt=1e-3)] | None = None
+
+    @model_validator(mode="after")
+    def _cladding_size(self):
+        """A catalog-style ``cladding = "<id>"`` takes exactly one of cladding_thickness_m and
+        cladding_area_fraction; a cladding table carries its own; no cladding, neither."""
+        t, f = self.cladding_thickness_m, self.cladding_area_fraction
+        key = "cladding_thickness_m" if t is not None else "cladding_area_fraction"
+        value = t if t is not None else f
+        if isinstance(self.cladding, str):
+            if (t is None) == (f is None):
+                raise rule_error(key, value, "with cladding = \"<id>\" give exactly one of "
+                                             "cladding_thickness_m and cladding_area_fraction")
+        elif t is not None or f is not None:
+            where = "inside the cladding table" if self.cladding is not None else (
+                "only with cladding = \"<id>\"")
+            raise rule_error(key, value, f"allowed {where}")
+        return self
 
 
 class DielectricMaterial(Record):
@@ -97,6 +151,7 @@ class JacketMaterial(Record):
 
 
 class CatalogConductor(ConductorMaterial):
+    cladding: str | None = None
     temperature_coefficient_per_k: Annotated[float, Field(ge=-0.01, le=0.02)]
     density_kg_per_m3: Density
     price_per_kg: Price

@@ -12,7 +12,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from cablefam.optimizer.model import effective_dielectric, ratings
+from cablefam.optimizer.model import conductor_layers, effective_dielectric, ratings
 from cablefam.physics import (eccentricity, line, mass, modes, propagation, stranding,
                               thermal)
 from cablefam.physics.internal_impedance import tube_dc_resistance
@@ -100,7 +100,9 @@ def electromagnetic(d: Designs, op: OperatingPoint, method="auto",
                               d.inner.get("relative_permeability", 1.0),
                               d.shield.get("relative_permeability", 1.0), method=method,
                               offset=d.eccentricity, inner_strands=d.inner_strands,
-                              geometry_factor=lam)
+                              geometry_factor=lam,
+                              inner_surface=conductor_layers.inner_surface(d),
+                              shield_surface=conductor_layers.shield_surface(d))
     return _line_quantities(d, op, lp, d if reference is None else reference, lam)
 
 
@@ -130,6 +132,7 @@ def _reference_quantities(d: Designs, op: OperatingPoint):
             a, d.inner_strands, d.inner["resistivity_ohm_m"]),
         "dc_resistance_shield_ohm_per_m": tube_dc_resistance(b, c, d.shield["resistivity_ohm_m"]),
     }
+    out.update(conductor_layers.reference_quantities(d, op))  # clad conductors, roughness
     return {k: _float_array(v, np.shape(a)) for k, v in out.items()}
 
 
@@ -235,6 +238,7 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
     """:func:`evaluate` of one block; ``no_jacket`` is decided on the whole population."""
     # a foamed or dispersive dielectric: its effective values at the operating frequency
     d, dielectric_out = effective_dielectric.resolve(d, op.frequency_hz)
+    d = conductor_layers.mass_equivalent(d)  # clad conductors: density and price of both layers
     a, b = d.inner_radius, d.dielectric_radius
     c, rd = d.shield_radius, d.outer_radius
     diel = d.dielectric
@@ -263,6 +267,8 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
             shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
             offset=d.eccentricity, inner_strands=d.inner_strands, geometry_factor=lam,
             **ratings.thermal_conditions(d, op),
+            inner_surface=conductor_layers.inner_surface(d),
+            shield_surface=conductor_layers.shield_surface(d),
         )
     state = None
     if thermal_ok and op.power_w is not None:
@@ -278,6 +284,9 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
                 np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
             dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
             inner_strands=d.inner_strands)
+        hot = conductor_layers.heated(  # each layer at its conductor's temperature
+            hot, np.where(state.converged, state.conductor_temperature_c, op.ambient_c),
+            np.where(state.converged, state.shield_temperature_c, op.ambient_c))
         out = electromagnetic(hot, op, method, reference=d, geometry_factor=lam)
     else:
         out = electromagnetic(d, op, method, geometry_factor=lam)

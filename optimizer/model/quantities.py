@@ -109,6 +109,12 @@ _ALL = (
     # foamed dielectric by void fraction and dielectric dispersion
     Quantity("void_fraction", "dielectric void fraction", "-", _LINE),
     Quantity("effective_relative_permittivity", "effective permittivity", "-", _LINE, "at f"),
+    # clad and plated conductors, surface roughness (conductor_layers)
+    Quantity("cladding_thickness_inner_m", "cladding, centre conductor", "m", _LINE,
+             "per wire"),
+    Quantity("cladding_thickness_shield_m", "plating, shield", "m", _LINE, "inner surface"),
+    Quantity("roughness_factor_inner", "roughness factor, centre conductor", "-", _LOSS),
+    Quantity("roughness_factor_shield", "roughness factor, shield", "-", _LOSS),
 )
 
 #: key -> quantity, in report order

@@ -10,6 +10,7 @@ import math
 
 import tomli_w
 
+from cablefam.optimizer.inputs.cladding import inline_layer
 from cablefam.optimizer.inputs.design_file import MATERIAL_TABLES
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.run_folder.reader import read_front, run_catalog
@@ -57,6 +58,8 @@ def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
         doc[table] = cat.get(kind, mid, f"run {run_dir}").model_dump(exclude_none=True)
         if doc[table].get("foamable") and "void_fraction" in row:  # the search's void fraction
             doc[table]["void_fraction"] = float(row["void_fraction"])
+        if kind == "conductor":  # a clad record's layer, inline too
+            doc[table] = inline_layer(doc[table], cat, f"run {run_dir}")
     doc["operating"] = {k: float(row[k]) for k in _OPERATING
                         if k in row and not math.isnan(float(row[k]))}
     return doc, row["catalog"], ids

@@ -20,6 +20,8 @@ from __future__ import annotations
 
 import numpy as np
 
+from cablefam.optimizer.model import conductor_layers
+from cablefam.optimizer.model.evaluate import Designs
 from cablefam.physics import line
 from cablefam.physics.constants import FREE_SPACE_IMPEDANCE
 
@@ -65,11 +67,16 @@ def solve_dielectric_radius(a, a_el, c_minus_b, frequency, target_ohm, inner, sh
     slope = impedance_slope(eps)
     b = dielectric_radius_lossless(a_el, eps, target_ohm)
     for _ in range(steps):
+        # clad/plated conductors and roughness: their layers as the evaluation sees them
+        d = Designs(a, b, c_minus_b, 0.0, inner, shield, dielectric, None,
+                    inner_strands=inner_strands)
         lp = line.line_parameters(a, b, b + c_minus_b, frequency, inner["resistivity_ohm_m"],
                                   shield["resistivity_ohm_m"], eps, dielectric["loss_tangent"],
                                   inner.get("relative_permeability", 1.0),
                                   shield.get("relative_permeability", 1.0),
-                                  inner_strands=inner_strands)
+                                  inner_strands=inner_strands,
+                                  inner_surface=conductor_layers.inner_surface(d),
+                                  shield_surface=conductor_layers.shield_surface(d))
         z0 = np.abs(line.characteristic_impedance(lp.r, lp.l, lp.g, lp.c, frequency))
         b = b * np.exp((target_ohm - z0) / slope)
     return b

@@ -35,6 +35,7 @@ from cablefam.optimizer.search.void_fraction import (FOAM_RECORD_KEYS, VOID_FRAC
                                                      effective_permittivity_range,
                                                      record_columns, with_design_void_fraction)
 from cablefam.optimizer.inputs.wire_size_table import standard_diameters
+from cablefam.optimizer.inputs import cladding
 from cablefam.physics.stranding import stranded_effective_radius
 from cablefam.physics.wire_sizes import snap_to_sizes
 
@@ -221,6 +222,8 @@ class MemberProblem(Problem):
         if not ids:
             return None
         records = [self.catalog.get(SLOT_KINDS[table], i, table) for i in ids]
+        if SLOT_KINDS[table] == "conductor":  # clad conductors: their layers resolved too
+            return cladding.property_table(records, self.catalog, str(self.catalog.path))
         keys = [k for k, v in records[0].model_dump().items() if isinstance(v, (int, float))
                 and not isinstance(v, bool) and k not in FOAM_RECORD_KEYS]
         out = {k: np.array([getattr(r, k) for r in records], dtype=float) for k in keys}

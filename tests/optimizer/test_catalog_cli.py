@@ -11,7 +11,8 @@ MINIMAL = (DATA / "minimal_catalog.toml").read_text()
 
 
 def test_the_three_bundled_catalogs_are_there():
-    assert [p.name for p in BUNDLED_CATALOGS] == ["baseline.toml", "high-temperature.toml",
+    assert [p.name for p in BUNDLED_CATALOGS] == ["baseline.toml", "clad-conductors.toml",
+                                                   "high-temperature.toml",
                                                    "lightweight.toml"]
 
 
@@ -34,7 +35,7 @@ def test_check_takes_several_files_and_reports_each(cli, tmp_path):
     bad.write_text(MINIMAL.replace("loss_tangent = 2e-4", "loss_tangent = 1.5"))
     code, out, err = cli("catalog", "check", *BUNDLED_CATALOGS, bad)
     assert code == 2
-    assert sum(": ok, catalog" in line for line in out.splitlines()) == 3
+    assert sum(": ok, catalog" in line for line in out.splitlines()) == len(BUNDLED_CATALOGS)
     assert err.splitlines() == [f"{bad}: [dielectric.solid-pe] loss_tangent = 1.5: Input "
                                 "should be less than 1"]
 
