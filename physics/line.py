@@ -222,7 +222,7 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
     if fixed.inner_loss_factor is not None:
         # Wheeler's factors on the skin-effect part only: the DC resistance of an offset line
         # is that of the concentric one (eccentricity.skin_regime_loss_factor)
-        r_dc_i = wire_dc_resistance(a, inner_resistivity)
+        r_dc_i = wire_dc_resistance(a, inner_dc_resistivity)
         if fixed.inner_dc_resistance_factor is not None:
             r_dc_i = r_dc_i * fixed.inner_dc_resistance_factor
         f_i = eccentricity.skin_regime_loss_factor(fixed.inner_loss_factor, r_i, r_dc_i)
