@@ -14,7 +14,7 @@ from typing import NamedTuple
 
 import numpy as np
 
-from cablefam.physics import eccentricity
+from cablefam.physics import eccentricity, outer_conductor
 from cablefam.physics.eccentricity import impedance_per_geometry_factor  # noqa: F401 (re-export)
 from cablefam.physics.constants import epsilon_0, mu_0
 from cablefam.physics.internal_impedance import (tube_resistance_reactance, wire_dc_resistance,
@@ -174,7 +174,7 @@ class ConductorImpedances(NamedTuple):
 
 def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity,
                          fixed: LineFixedParts, inner_relative_permeability=1.0,
-                         shield_relative_permeability=1.0, method="auto"):
+                         shield_relative_permeability=1.0, method="auto", outer=None):
     r"""Internal impedances of the centre conductor and of the shield in the line.
 
     Parameters
@@ -185,6 +185,9 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
         From :func:`line_fixed_parts` for the same designs (its conductor factors are used).
     inner_relative_permeability, shield_relative_permeability, method : optional
         As in :func:`line_parameters`.
+    outer : cablefam.physics.outer_conductor.OuterConductor, optional
+        Braid and foil outer conductors (None: every shield is a tube; see
+        :func:`line_parameters`).
 
     Returns
     -------
@@ -196,6 +199,13 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
                                          inner_relative_permeability, method=method)
     r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
                                          shield_relative_permeability, method=method)
+    # --- outer conductors other than the tube (braid, foil; issue 12) ---
+    if outer is not None and np.any(np.asarray(outer.construction) != 0):
+        r_o, x_o = outer_conductor.internal_impedance(outer, b, shield_resistivity, frequency,
+                                                      shield_relative_permeability)
+        tube = np.asarray(outer.construction) == 0
+        r_s, x_s = np.where(tube, r_s, r_o), np.where(tube, x_s, x_o)
+    # --- end of the outer-conductor addition ---
     if fixed.inner_skin_effect_factor is not None:
         skin = fixed.inner_skin_effect_factor
         r_dc = wire_dc_resistance(a, inner_resistivity) * fixed.inner_dc_resistance_factor
@@ -211,7 +221,7 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
 def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                     relative_permittivity, loss_tangent, inner_relative_permeability=1.0,
                     shield_relative_permeability=1.0, method="auto", offset=0.0,
-                    inner_strands=1, geometry_factor=None):
+                    inner_strands=1, geometry_factor=None, outer=None):
     r"""R, L, G, C of a coax at frequency :math:`f`, with exact conductor internal impedance.
 
     Parameters
@@ -241,6 +251,10 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
     geometry_factor : array_like, optional
         :math:`\Lambda` of the effective centre-conductor radius, ``b`` and ``offset`` when
         the caller has it already [-] (computed here otherwise).
+    outer : cablefam.physics.outer_conductor.OuterConductor, optional
+        Outer conductor per design (tube, foil, braid, foil + braid, double braid); the
+        shield's internal impedance of the non-tube ones is
+        :func:`cablefam.physics.outer_conductor.internal_impedance`. None: tubes.
 
     Returns
     -------
@@ -269,7 +283,8 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
     fixed = line_fixed_parts(a, b, frequency, relative_permittivity, loss_tangent, offset,
                              inner_strands, geometry_factor)
     z = conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity, fixed,
-                             inner_relative_permeability, shield_relative_permeability, method)
+                             inner_relative_permeability, shield_relative_permeability, method,
+                             outer=outer)
     ind = fixed.l_external + (z.x_inner + z.x_shield) / omega
     return LineParameters(r=z.r_inner + z.r_shield, l=ind, g=fixed.g, c=fixed.c,
                           r_inner=z.r_inner, r_shield=z.r_shield)

@@ -11,6 +11,11 @@ Keys (a contract: add freely, rename none)::
     [shield]     same keys as [conductor]
     [dielectric] id or relative_permittivity, loss_tangent, dielectric_strength_v_per_m, ...
     [jacket]     optional: id or thermal_resistivity_k_m_per_w, max_temperature_c, ...
+    outer conductor (optional, in [geometry]): shield_construction ("tube" default, "foil",
+                 "braid", "foil-braid", "double-braid"), braid_carriers, braid_ends,
+                 braid_wire_diameter_m, braid_angle_deg, foil_thickness_m; shield_thickness_m
+                 belongs to "tube" only; [foil] optional table (id or inline) for the foil's
+                 material (default: the shield's)
     [operating]  frequency_hz, peak_voltage_v, current_a, field_safety_factor, power_w,
                  ambient_c
 
@@ -44,10 +49,28 @@ class Geometry(Record):
 
     inner_radius_m: Annotated[float, Field(gt=0, lt=1.0)]
     dielectric_radius_m: Annotated[float, Field(gt=0, lt=1.0)]
-    shield_thickness_m: Annotated[float, Field(gt=0, lt=1.0)]
+    shield_thickness_m: Annotated[float, Field(gt=0, lt=1.0)] | None = None
     jacket_thickness_m: Annotated[float, Field(ge=0, lt=1.0)] = 0.0
     eccentricity_m: Annotated[float, Field(ge=0, lt=1.0)] = 0.0
     inner_strands: Literal[1, 7, 19, 37] = 1
+    # --- outer conductors as built (braid, foil; issue 12) ---
+    shield_construction: Literal["tube", "foil", "braid", "foil-braid",
+                                 "double-braid"] | None = None
+    braid_carriers: Annotated[int, Field(ge=2, le=200, strict=True)] | None = None
+    braid_ends: Annotated[int, Field(ge=1, le=100, strict=True)] | None = None
+    braid_wire_diameter_m: Annotated[float, Field(gt=0, lt=0.01)] | None = None
+    braid_angle_deg: Annotated[float, Field(gt=0, lt=90)] | None = None
+    foil_thickness_m: Annotated[float, Field(gt=0, lt=0.01)] | None = None
+
+    @model_validator(mode="after")
+    def _outer_conductor_keys(self):
+        """Each construction has its keys and no others (see :mod:`outer_conductor_keys`)."""
+        from cablefam.optimizer.model.outer_conductor import check_geometry_keys
+        problem = check_geometry_keys(self)
+        if problem is not None:
+            raise rule_error(*problem)
+        return self
+    # --- end of the outer-conductor keys ---
 
     @model_validator(mode="after")
     def _conductors_apart(self):
@@ -82,7 +105,8 @@ DesignFile = create_model(
     geometry=(Geometry, ...),
     **{s.name: (dict[str, Any] | None, None) if s.optional else (dict[str, Any], ...)
        for s in MATERIAL_SLOTS},
-    operating=(Operating, ...))
+    operating=(Operating, ...),
+    foil=(dict[str, Any] | None, None))
 
 
 @dataclass(frozen=True)
@@ -98,6 +122,8 @@ class Design:
     operating: Operating
     material_ids: dict[str, str | None]
     catalog: Catalog | None = None
+    foil: ConductorMaterial | None = None
+    """Material of the foil (None: the shield's)."""
 
 
 def _material(data: dict, table: str, catalog: Catalog | None, where: str):
@@ -132,8 +158,25 @@ def parse_design(raw: dict, where: str, base_dir: Path) -> Design:
             continue
         records[table], ids[table] = _material(data, table, catalog, where)
     name = spec.name if spec.name is not None else Path(where).stem
+    foil = None
+    if spec.foil is not None:
+        foil = _foil_material(spec.foil, catalog, where)
     return Design(name=name, geometry=spec.geometry, operating=spec.operating,
-                  material_ids=ids, catalog=catalog, **records)
+                  material_ids=ids, catalog=catalog, foil=foil, **records)
+
+
+def _foil_material(data: dict, catalog: Catalog | None, where: str):
+    """The [foil] table: a conductor record (``id`` from the catalog, keys override)."""
+    data = dict(data)
+    material_id = data.pop("id", None)
+    if material_id is not None:
+        if catalog is None or not isinstance(material_id, str):
+            raise InputError(f"{where}: [foil] id = {material_id!r}: needs a string id and a "
+                             "top-level `catalog = \"path/to/catalog.toml\"`")
+        base = catalog.get("conductor", material_id, f"{where}: [foil]").model_dump(
+            exclude_none=True)
+        data = {**base, **data}
+    return validate_record(ConductorMaterial, data, where, "foil")
 
 
 def load_design(path) -> Design:
@@ -152,15 +195,19 @@ def design_arrays(design: Design):
         return {k: np.array([v], dtype=float) for k, v in record.model_dump(
             exclude_none=True).items() if isinstance(v, (int, float))}
 
+    from cablefam.optimizer.model.outer_conductor import design_outer_fields
+
     g = design.geometry
+    outer = design_outer_fields(g, table(design.foil))
     designs = Designs(
         inner_radius=np.array([g.inner_radius_m]),
         dielectric_radius=np.array([g.dielectric_radius_m]),
-        shield_thickness=np.array([g.shield_thickness_m]),
+        shield_thickness=np.array([outer.pop("shield_thickness")]),
         jacket_thickness=np.array([g.jacket_thickness_m]),
         inner=table(design.conductor), shield=table(design.shield),
         dielectric=table(design.dielectric), jacket=table(design.jacket),
-        eccentricity=np.array([g.eccentricity_m]), inner_strands=np.array([g.inner_strands]))
+        eccentricity=np.array([g.eccentricity_m]), inner_strands=np.array([g.inner_strands]),
+        **outer)
     o = design.operating
     op = OperatingPoint(frequency_hz=o.frequency_hz, peak_voltage_v=o.peak_voltage_v,
                         current_a=o.current_a, field_safety_factor=o.field_safety_factor,

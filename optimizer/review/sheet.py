@@ -19,6 +19,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
+from cablefam.optimizer.model.outer_conductor import shield_build_m
 from cablefam.optimizer.atomic import write_text_atomic
 from cablefam.optimizer.cautions import CAUTION_LINES
 from cablefam.optimizer.errors import InputError
@@ -242,7 +243,7 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
     values = result.values
     g = design.geometry
     a, b = g.inner_radius_m, g.dielectric_radius_m
-    c = b + g.shield_thickness_m
+    c = b + shield_build_m(g)
     d = c + g.jacket_thickness_m
     offset = float(getattr(g, "eccentricity_m", 0.0) or 0.0)
     stem = safe_name(f"{member}-{catalog}-{index}")
@@ -299,7 +300,7 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
             ("dielectric radius b", engineering(b, "m")),
             ("shield outer radius c", engineering(c, "m")),
             ("outer radius d", engineering(d, "m")),
-            ("shield thickness", engineering(g.shield_thickness_m, "m")),
+            ("shield thickness", engineering(shield_build_m(g), "m")),
             ("jacket thickness", engineering(g.jacket_thickness_m, "m")),
             ("centre-conductor offset (eccentricity)", engineering(offset, "m")),
             ("b/a", f"{b / a:.4g}"))),

@@ -1,0 +1,180 @@
+"""Outer conductors as built (tube, foil, braid, foil + braid, double braid) in the evaluation.
+
+:func:`cablefam.optimizer.model.evaluate.evaluate` calls :func:`outer_quantities` for designs
+whose ``shield_construction`` is set; designs without it (every design of an older file or
+sweep) are tubes and get exactly the numbers and keys they always had. The physics is in
+:mod:`cablefam.physics.outer_conductor`.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from cablefam.physics import braid
+from cablefam.physics import outer_conductor as oc
+from cablefam.physics.units import per_m_to_per_km
+
+#: Values of the braid and foil arrays of designs that do not use them (harmless, finite).
+DEFAULTS = {"braid_carriers": 16.0, "braid_ends": 8.0, "braid_wire_diameter": 1.27e-4,
+            "braid_angle": float(np.radians(30.0)), "foil_thickness": 2.5e-5}
+#: Frequencies per decade at which the screening band is sampled (plus both ends).
+BAND_POINTS_PER_DECADE = 4
+
+_BRAID_KEYS = ("braid_carriers", "braid_ends", "braid_wire_diameter_m", "braid_angle_deg")
+_KEYS_OF = {"tube": ("shield_thickness_m",), "foil": ("foil_thickness_m",),
+            "braid": _BRAID_KEYS, "foil-braid": _BRAID_KEYS + ("foil_thickness_m",),
+            "double-braid": _BRAID_KEYS}
+_ALL_KEYS = ("shield_thickness_m",) + _BRAID_KEYS + ("foil_thickness_m",)
+
+
+def check_geometry_keys(g):
+    """None, or ``(key, value, reason)`` of the first key that does not fit the construction.
+
+    ``g`` is the ``[geometry]`` model of a design file. A construction needs its own keys
+    (:data:`_KEYS_OF`) and accepts no other; the braid must be physically possible (fill
+    factor at most 1).
+    """
+    kind = g.shield_construction or "tube"
+    need = _KEYS_OF[kind]
+    for key in _ALL_KEYS:
+        value = getattr(g, key)
+        if key in need and value is None:
+            return key, value, f"is required for shield_construction = {kind!r}"
+        if key not in need and value is not None:
+            return key, value, f"does not apply to shield_construction = {kind!r}"
+    if kind in ("braid", "foil-braid", "double-braid"):
+        b = g.dielectric_radius_m + (g.foil_thickness_m or 0.0)
+        geo = braid.braid_geometry(b, g.braid_carriers, g.braid_ends, g.braid_wire_diameter_m,
+                                   np.radians(g.braid_angle_deg))
+        fill = float(geo.fill_factor)
+        if fill > 1.0:
+            return ("braid_angle_deg", g.braid_angle_deg,
+                    f"gives a fill factor F = {fill:.3f} > 1 (more wire than fits: fewer "
+                    "carriers or ends, a thinner wire or a smaller angle)")
+    return None
+
+
+def design_outer_fields(g, foil_table):
+    """Keyword arguments of :class:`~cablefam.optimizer.model.evaluate.Designs` for a design
+    file's ``[geometry]`` (``shield_thickness`` is the radial build of the construction)."""
+    if g.shield_construction is None:
+        return {"shield_thickness": g.shield_thickness_m}
+    code = oc.CONSTRUCTIONS.index(g.shield_construction)
+    fields = {
+        "shield_construction": np.array([code]),
+        "braid_carriers": np.array([float(g.braid_carriers or DEFAULTS["braid_carriers"])]),
+        "braid_ends": np.array([float(g.braid_ends or DEFAULTS["braid_ends"])]),
+        "braid_wire_diameter": np.array([g.braid_wire_diameter_m
+                                         or DEFAULTS["braid_wire_diameter"]]),
+        "braid_angle": np.array([np.radians(g.braid_angle_deg) if g.braid_angle_deg
+                                 else DEFAULTS["braid_angle"]]),
+        "foil_thickness": np.array([g.foil_thickness_m or DEFAULTS["foil_thickness"]]),
+        "foil": foil_table,
+    }
+    build = oc.radial_build(outer_of_fields(fields, None), g.shield_thickness_m or 0.0)
+    return {"shield_thickness": float(np.ravel(build)[0]), **fields}
+
+
+def outer_of_fields(fields, foil_resistivity):
+    """An :class:`~cablefam.physics.outer_conductor.OuterConductor` of Designs-style fields."""
+    return oc.OuterConductor(
+        construction=fields["shield_construction"], carriers=fields["braid_carriers"],
+        ends=fields["braid_ends"], wire_diameter=fields["braid_wire_diameter"],
+        angle=fields["braid_angle"], foil_thickness=fields["foil_thickness"],
+        foil_resistivity=1.0 if foil_resistivity is None else foil_resistivity)
+
+
+def foil_table(d):
+    """The foil's material table of designs ``d`` (the shield's where none is given)."""
+    return d.shield if d.foil is None else {**d.shield, **d.foil}
+
+
+def outer_of(d):
+    """The OuterConductor of designs ``d`` for the physics, or None (every design a tube)."""
+    if d.shield_construction is None:
+        return None
+    fields = {k: getattr(d, k) for k in ("shield_construction", "braid_carriers", "braid_ends",
+                                          "braid_wire_diameter", "braid_angle",
+                                          "foil_thickness")}
+    return outer_of_fields(fields, foil_table(d)["resistivity_ohm_m"])
+
+
+def screening_frequencies(frequency_hz, band):
+    """Sample frequencies [Hz] of the screening band (default: the frequency alone)."""
+    if band is None:
+        return np.atleast_1d(np.asarray(frequency_hz, dtype=float))
+    lo, hi = float(band[0]), float(band[1])
+    n = max(2, int(np.ceil(BAND_POINTS_PER_DECADE * np.log10(hi / lo))) + 1)
+    return np.geomspace(lo, hi, n)
+
+
+def transfer_impedance_curve(d, frequencies):
+    """|Z_T| [ohm m^-1] of designs ``d`` at ``frequencies``: shape (len(frequencies), n)."""
+    outer = outer_of(d)
+    f = np.asarray(frequencies, dtype=float).reshape(-1, *([1] * np.ndim(d.inner_radius)))
+    z = oc.transfer_impedance(outer, d.dielectric_radius, d.shield_radius,
+                              d.shield["resistivity_ohm_m"], f,
+                              d.shield.get("relative_permeability", 1.0))
+    return np.abs(z)
+
+
+def outer_quantities(d, op, out):
+    """Add the outer-conductor keys to ``out`` and correct the tube-based ones in place.
+
+    New keys: ``braid_fill_factor``, ``braid_optical_coverage`` (0 for a foil or tube),
+    ``shield_construction`` (the code of
+    :data:`cablefam.physics.outer_conductor.CONSTRUCTIONS`), ``transfer_impedance_ohm_per_m`` (|Z_T| at the operating
+    frequency), ``transfer_impedance_max_ohm_per_m`` (largest |Z_T| over the screening band).
+    Corrected for non-tube designs: ``dc_resistance_shield_ohm_per_m``,
+    ``dc_loop_resistance_ohm_per_km``, ``mass_kg_per_km``, ``cost_per_km``.
+    """
+    outer = outer_of(d)
+    shape = np.shape(d.inner_radius)
+    code = np.broadcast_to(np.asarray(outer.construction), shape)
+    b, c = d.dielectric_radius, d.shield_radius
+    braided = np.isin(code, (oc.BRAID, oc.FOIL_BRAID, oc.DOUBLE_BRAID))
+    b_braid = b + np.where(code == oc.FOIL_BRAID, outer.foil_thickness, 0.0)
+    geo = braid.braid_geometry(b_braid, outer.carriers, outer.ends, outer.wire_diameter,
+                               outer.angle)
+    out["shield_construction"] = code.astype(float)
+    out["braid_fill_factor"] = np.where(braided, geo.fill_factor, 0.0) + 0.0 * b
+    out["braid_optical_coverage"] = np.where(braided, geo.optical_coverage, 0.0) + 0.0 * b
+    rho_s = d.shield["resistivity_ohm_m"]
+    mu_s = d.shield.get("relative_permeability", 1.0)
+    z_f = oc.transfer_impedance(outer, b, c, rho_s, op.frequency_hz, mu_s)
+    out["transfer_impedance_ohm_per_m"] = np.abs(z_f) + 0.0 * b
+    band = getattr(op, "screening_band_hz", None)
+    curve = transfer_impedance_curve(d, screening_frequencies(op.frequency_hz, band))
+    out["transfer_impedance_max_ohm_per_m"] = np.broadcast_to(curve.max(axis=0), shape).copy()
+    if not np.any(code != oc.TUBE):
+        return out
+    tube = code == oc.TUBE
+    r_dc = oc.dc_resistance(outer, b, c, rho_s)
+    out["dc_resistance_shield_ohm_per_m"] = np.where(
+        tube, out["dc_resistance_shield_ohm_per_m"], r_dc)
+    out["dc_loop_resistance_ohm_per_km"] = per_m_to_per_km(
+        out["dc_resistance_inner_ohm_per_m"] + out["dc_resistance_shield_ohm_per_m"])
+    if "mass_kg_per_km" in out:
+        foil = foil_table(d)
+        m_new = oc.shield_mass(outer, b, c, d.shield["density_kg_per_m3"],
+                               foil.get("density_kg_per_m3", d.shield["density_kg_per_m3"]))
+        m_tube = d.shield["density_kg_per_m3"] * np.pi * (c * c - b * b)
+        delta_mass = np.where(tube, 0.0, m_new - m_tube)
+        out["mass_kg_per_km"] = out["mass_kg_per_km"] + per_m_to_per_km(delta_mass)
+        if "cost_per_km" in out:
+            foil_mass = np.where(np.isin(code, (oc.FOIL, oc.FOIL_BRAID)),
+                                 np.pi * outer.foil_thickness * (2.0 * b + outer.foil_thickness)
+                                 * foil.get("density_kg_per_m3", 0.0), 0.0)
+            p_s, p_f = d.shield["price_per_kg"], foil.get("price_per_kg", d.shield["price_per_kg"])
+            delta_cost = (delta_mass - foil_mass) * p_s + foil_mass * p_f
+            out["cost_per_km"] = out["cost_per_km"] + per_m_to_per_km(
+                np.where(tube, 0.0, delta_cost))
+    return out
+
+
+def shield_build_m(g) -> float:
+    """Radial build ``c - b`` [m] of a design file's ``[geometry]`` (the tube's wall, or the
+    layers of the construction)."""
+    if g.shield_construction is None:
+        return g.shield_thickness_m
+    return design_outer_fields(g, None)["shield_thickness"]
