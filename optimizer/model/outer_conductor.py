@@ -38,10 +38,11 @@ def check_geometry_keys(g):
     need = _KEYS_OF[kind]
     for key in _ALL_KEYS:
         value = getattr(g, key)
-        if key in need and value is None:
-            return key, value, f"is required for shield_construction = {kind!r}"
         if key not in need and value is not None:
             return key, value, f"does not apply to shield_construction = {kind!r}"
+    for key in need:
+        if getattr(g, key) is None:
+            return key, None, f"required key is missing for shield_construction = {kind!r}"
     if kind in ("braid", "foil-braid", "double-braid"):
         b = g.dielectric_radius_m + (g.foil_thickness_m or 0.0)
         geo = braid.braid_geometry(b, g.braid_carriers, g.braid_ends, g.braid_wire_diameter_m,
