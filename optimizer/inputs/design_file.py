@@ -17,7 +17,7 @@ Keys (a contract: add freely, rename none)::
                  belongs to "tube" only; [foil] optional table (id or inline) for the foil's
                  material (default: the shield's)
     [operating]  frequency_hz, peak_voltage_v, current_a, field_safety_factor, power_w,
-                 ambient_c
+                 ambient_c, screening_band_hz = [low, high] (optional)
 
 A material table that gives ``id`` takes the record from the catalog; any other keys in the
 table override the catalog's values.
@@ -95,6 +95,16 @@ class Operating(Record):
     field_safety_factor: Annotated[float, Field(ge=1.0)] = 1.0
     power_w: Annotated[float, Field(ge=0)] | None = None
     ambient_c: Temperature = 20.0
+    screening_band_hz: Annotated[list[Annotated[float, Field(gt=0, le=1e12)]],
+                                 Field(min_length=2, max_length=2)] | None = None
+    """[low, high] over which the largest transfer impedance is reported (issue 12)."""
+
+    @model_validator(mode="after")
+    def _band_order(self):
+        band = self.screening_band_hz
+        if band is not None and not band[0] <= band[1]:
+            raise rule_error("screening_band_hz", band, "low must not exceed high")
+        return self
 
 
 #: The file's top level: the slot tables stay raw here (an ``id`` pulls a catalog record in
@@ -211,5 +221,7 @@ def design_arrays(design: Design):
     o = design.operating
     op = OperatingPoint(frequency_hz=o.frequency_hz, peak_voltage_v=o.peak_voltage_v,
                         current_a=o.current_a, field_safety_factor=o.field_safety_factor,
-                        power_w=o.power_w, ambient_c=o.ambient_c)
+                        power_w=o.power_w, ambient_c=o.ambient_c,
+                        screening_band_hz=(None if o.screening_band_hz is None
+                                           else tuple(o.screening_band_hz)))
     return designs, op

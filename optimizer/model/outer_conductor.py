@@ -138,6 +138,12 @@ def outer_quantities(d, op, out):
     geo = braid.braid_geometry(b_braid, outer.carriers, outer.ends, outer.wire_diameter,
                                outer.angle)
     out["shield_construction"] = code.astype(float)
+    # the construction's variables, as a front row needs them to become a design file again
+    for key, value in (("braid_carriers", outer.carriers), ("braid_ends", outer.ends),
+                       ("braid_wire_diameter_m", outer.wire_diameter),
+                       ("braid_angle_deg", np.degrees(outer.angle)),
+                       ("foil_thickness_m", outer.foil_thickness)):
+        out[key] = np.broadcast_to(np.asarray(value, dtype=float), shape).copy()
     out["braid_fill_factor"] = np.where(braided, geo.fill_factor, 0.0) + 0.0 * b
     out["braid_optical_coverage"] = np.where(braided, geo.optical_coverage, 0.0) + 0.0 * b
     rho_s = d.shield["resistivity_ohm_m"]
@@ -179,3 +185,24 @@ def shield_build_m(g) -> float:
     if g.shield_construction is None:
         return g.shield_thickness_m
     return design_outer_fields(g, None)["shield_thickness"]
+
+
+def outer_geometry_keys(row) -> dict:
+    """The ``[geometry]`` outer-conductor keys of a front row (a mapping of its columns).
+
+    Returns a dict to update the row's geometry with: nothing for a row without the
+    construction column (a tube as before); otherwise ``shield_construction`` and the
+    construction's own keys (``shield_thickness_m`` excepted: the row has it already, and for
+    the other constructions the caller drops it).
+    """
+    code = row.get("shield_construction") if hasattr(row, "get") else None
+    if code is None or not np.isfinite(float(code)):
+        return {}
+    kind = oc.CONSTRUCTIONS[int(code)]
+    keys = {"shield_construction": kind}
+    for key in _KEYS_OF[kind]:
+        if key == "shield_thickness_m":
+            continue
+        value = float(row[key])
+        keys[key] = int(round(value)) if key in ("braid_carriers", "braid_ends") else value
+    return keys

@@ -105,6 +105,11 @@ _ALL = (
     Quantity("transfer_impedance_ohm_per_m", "|transfer impedance|", "ohm/m", _LINE, "at f"),
     Quantity("transfer_impedance_max_ohm_per_m", "max |transfer impedance|", "ohm/m", _LINE,
              "over the screening band"),
+    Quantity("braid_carriers", "braid carriers", "-"),
+    Quantity("braid_ends", "braid ends (wires per carrier)", "-"),
+    Quantity("braid_wire_diameter_m", "braid wire diameter", "m"),
+    Quantity("braid_angle_deg", "braid angle", "deg"),
+    Quantity("foil_thickness_m", "foil thickness", "m"),
     # --- end of the outer-conductor block ---
     # not in the report: a flag, the tolerance results, the decision variables
     Quantity("thermal_converged", "thermal steady state", "-"),

@@ -14,6 +14,7 @@ from cablefam.optimizer.inputs.design_file import MATERIAL_TABLES
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.run_folder.reader import read_front, run_catalog
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS
+from cablefam.optimizer.model.outer_conductor import outer_geometry_keys
 
 _OPERATING = ("frequency_hz", "peak_voltage_v", "power_w", "ambient_c", "field_safety_factor")
 
@@ -47,6 +48,10 @@ def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
                  "geometry": {k: float(row[k]) for k in GEOMETRY_KEYS}}
     if int(row.get("inner_strands", 1)) != 1:
         doc["geometry"]["inner_strands"] = int(row["inner_strands"])
+    outer = outer_geometry_keys(row)
+    if outer.get("shield_construction", "tube") != "tube":
+        del doc["geometry"]["shield_thickness_m"]  # the build follows from the layers
+    doc["geometry"].update(outer)
     ids = {}
     for table, (kind, _) in MATERIAL_TABLES.items():
         mid = row[table]
