@@ -197,14 +197,19 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
     """
     r_i, x_i = wire_resistance_reactance(a, inner_resistivity, frequency,
                                          inner_relative_permeability, method=method)
-    r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
-                                         shield_relative_permeability, method=method)
     # --- outer conductors other than the tube (braid, foil; issue 12) ---
-    if outer is not None and np.any(np.asarray(outer.construction) != 0):
+    tube = True if outer is None else np.asarray(outer.construction) == 0
+    if np.any(tube):
+        r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
+                                             shield_relative_permeability, method=method)
+    if not np.all(tube):
         r_o, x_o = outer_conductor.internal_impedance(outer, b, shield_resistivity, frequency,
                                                       shield_relative_permeability)
-        tube = np.asarray(outer.construction) == 0
-        r_s, x_s = np.where(tube, r_s, r_o), np.where(tube, x_s, x_o)
+        if np.any(tube):
+            r_s, x_s = np.where(tube, r_s, r_o), np.where(tube, x_s, x_o)
+        else:
+            shape = np.broadcast_shapes(np.shape(r_i), np.shape(r_o))
+            r_s, x_s = np.broadcast_to(r_o, shape), np.broadcast_to(x_o, shape)
     # --- end of the outer-conductor addition ---
     if fixed.inner_skin_effect_factor is not None:
         skin = fixed.inner_skin_effect_factor

@@ -104,24 +104,87 @@ def shield_mass(oc: OuterConductor, b, c, shield_density, foil_density):
                      2.0 * one_braid + 0.0 * tube)
 
 
-def _braid_surfaces(oc, radius, rho, f, mu_r):
+def _take(x, mask, shape):
+    """The elements of ``x`` (broadcast to ``shape``) where ``mask`` is True (``mask`` None:
+    every element, without a copy)."""
+    full = np.broadcast_to(np.asarray(x), shape)
+    return full.ravel() if mask is None else full[mask]
+
+
+def _subset(oc_: OuterConductor, mask, shape):
+    """The OuterConductor of the designs where ``mask`` is True (1-D arrays)."""
+    return OuterConductor(*(_take(x, mask, shape) for x in oc_))
+
+
+def _braid_surfaces(oc_, radius, rho, f, mu_r, inductance=None):
     """(Z_T, Z_i) of one braid at ``radius`` (its outer surface taken as its inner one)."""
-    r, x = braid.braid_internal_impedance(radius, oc.carriers, oc.ends, oc.wire_diameter,
-                                          oc.angle, rho, f, mu_r)
-    z_i = r + 1.0j * x
-    z_t = zt.braid_transfer_impedance(radius, oc.carriers, oc.ends, oc.wire_diameter, oc.angle,
-                                      rho, f, mu_r)
-    return z_t, z_i
+    r, x = braid.braid_internal_impedance(radius, oc_.carriers, oc_.ends, oc_.wire_diameter,
+                                          oc_.angle, rho, f, mu_r)
+    z_t = zt.braid_transfer_impedance(radius, oc_.carriers, oc_.ends, oc_.wire_diameter,
+                                      oc_.angle, rho, f, mu_r, inductance=inductance)
+    return z_t, r + 1.0j * x
 
 
-def _foil_surfaces(oc, b, f):
+def _foil_surfaces(oc_, b, f):
     """(Z_T, Z_surface) of the foil at ``b`` (thin-wall forms)."""
-    c = np.asarray(b, dtype=float) + np.asarray(oc.foil_thickness, dtype=float)
-    args = (b, c, oc.foil_resistivity, f, oc.foil_relative_permeability)
+    c = b + oc_.foil_thickness
+    args = (b, c, oc_.foil_resistivity, f, oc_.foil_relative_permeability)
     return zt.thin_tube_transfer_impedance(*args), zt.thin_tube_surface_impedance(*args)
 
 
-def internal_impedance(oc: OuterConductor, b, shield_resistivity, frequency,
+def _layers(kind, sub, b, rho, f, mu_r, inductances=None):
+    """(Z_T, Z_i) of the designs ``sub`` of one non-tube ``kind`` (1-D arrays, complex)."""
+    if kind == FOIL:
+        r_f, x_f = tube_resistance_reactance(b, b + sub.foil_thickness, sub.foil_resistivity,
+                                             f, sub.foil_relative_permeability)
+        return _foil_surfaces(sub, b, f)[0], r_f + 1.0j * x_f
+    m1, m2 = (None, None) if inductances is None else inductances
+    if kind == BRAID:
+        return _braid_surfaces(sub, b, rho, f, mu_r, m1)
+    if kind == FOIL_BRAID:
+        z_t_b, z_i_b = _braid_surfaces(sub, b + sub.foil_thickness, rho, f, mu_r, m1)
+        z_t_f, z_s_f = _foil_surfaces(sub, b, f)
+        return zt.layered(z_t_f, z_s_f, z_s_f, z_t_b, z_i_b)
+    z_t_1, z_i_1 = _braid_surfaces(sub, b, rho, f, mu_r, m1)
+    z_t_2, z_i_2 = _braid_surfaces(sub, b + 2.0 * sub.wire_diameter, rho, f, mu_r, m2)
+    return zt.layered(z_t_1, z_i_1, z_i_1, z_t_2, z_i_2)
+
+
+def _by_construction(oc_: OuterConductor, b, c, rho, f, mu_r, want_transfer):
+    """Z_T (``want_transfer``) or Z_i of every design, each construction on its own subset."""
+    code = np.asarray(oc_.construction)
+    shape = np.broadcast_shapes(np.shape(code), np.shape(b), np.shape(c), np.shape(f),
+                                np.shape(rho), np.shape(mu_r))
+    z = np.zeros(shape, dtype=complex)
+    for kind, mask, where in _groups(code, shape):
+        if kind == TUBE:
+            if want_transfer:
+                z[where] = zt.tube_transfer_impedance(*(_take(x, mask, shape) for x in (
+                    b, c, rho, f, mu_r))).reshape(np.shape(z[where]))
+            continue
+        sub = _subset(oc_, mask, shape)
+        args = [_take(x, mask, shape) for x in (b, rho, f, mu_r)]
+        if kind == BRAID and not want_transfer:  # the braid's own surface, no Z_T needed
+            r, x = braid.braid_internal_impedance(args[0], sub.carriers, sub.ends,
+                                                  sub.wire_diameter, sub.angle, *args[1:])
+            value = r + 1.0j * x
+        else:
+            value = _layers(int(kind), sub, *args)[0 if want_transfer else 1]
+        z[where] = value.reshape(np.shape(z[where]))
+    return z
+
+
+def _groups(code, shape):
+    """(code, mask for :func:`_take`, index into the full array) of each construction
+    present; a population of one construction gets ``mask`` None (no copies)."""
+    code_full = np.broadcast_to(code, shape)
+    kinds = np.unique(code_full)
+    if len(kinds) == 1:
+        return [(int(kinds[0]), None, Ellipsis)]
+    return [(int(k), code_full == k, code_full == k) for k in kinds]
+
+
+def internal_impedance(oc_: OuterConductor, b, shield_resistivity, frequency,
                        shield_relative_permeability=1.0):
     r"""Internal resistance and reactance of non-tube outer conductors [ohm m^-1].
 
@@ -129,37 +192,20 @@ def internal_impedance(oc: OuterConductor, b, shield_resistivity, frequency,
     (:func:`cablefam.physics.internal_impedance.tube_resistance_reactance`); braid:
     :func:`cablefam.physics.braid.braid_internal_impedance`; foil + braid and double braid:
     the layers in contact (:func:`cablefam.physics.transfer_impedance.layered`). Tube designs
-    get 0 here (their impedance comes from the tube formula).
+    get 0 here (their impedance comes from the tube formula). Each construction is evaluated
+    on its own designs only.
 
     Returns
     -------
     tuple of numpy.ndarray
         :math:`(R, X_i)` [ohm m^-1].
     """
-    code = np.asarray(oc.construction)
-    b = np.asarray(b, dtype=float)
-    rho, f, mu_r = shield_resistivity, frequency, shield_relative_permeability
-    z = np.zeros(np.broadcast_shapes(np.shape(code), np.shape(b), np.shape(f)), dtype=complex)
-    if np.any(code == FOIL):
-        r_f, x_f = tube_resistance_reactance(b, b + np.asarray(oc.foil_thickness, dtype=float),
-                                             oc.foil_resistivity, f,
-                                             oc.foil_relative_permeability)
-        z = np.where(code == FOIL, r_f + 1.0j * x_f, z)
-    if np.any(_has(code, BRAID, FOIL_BRAID, DOUBLE_BRAID)):
-        z_t_b, z_i_b = _braid_surfaces(oc, _braid_radius(oc, b), rho, f, mu_r)
-        z = np.where(code == BRAID, z_i_b, z)
-        if np.any(code == FOIL_BRAID):
-            z_t_f, z_s_f = _foil_surfaces(oc, b, f)
-            z = np.where(code == FOIL_BRAID, zt.layered(z_t_f, z_s_f, z_s_f, z_t_b, z_i_b)[1], z)
-        if np.any(code == DOUBLE_BRAID):
-            outer_r = b + 2.0 * np.asarray(oc.wire_diameter, dtype=float)
-            z_t_2, z_i_2 = _braid_surfaces(oc, outer_r, rho, f, mu_r)
-            z = np.where(code == DOUBLE_BRAID, zt.layered(z_t_b, z_i_b, z_i_b, z_t_2, z_i_2)[1],
-                         z)
+    z = _by_construction(oc_, b, b, shield_resistivity, frequency,
+                         shield_relative_permeability, want_transfer=False)
     return z.real, z.imag
 
 
-def transfer_impedance(oc: OuterConductor, b, c, shield_resistivity, frequency,
+def transfer_impedance(oc_: OuterConductor, b, c, shield_resistivity, frequency,
                        shield_relative_permeability=1.0):
     r"""Transfer impedance :math:`Z_T` of every construction [ohm m^-1], complex.
 
@@ -168,24 +214,77 @@ def transfer_impedance(oc: OuterConductor, b, c, shield_resistivity, frequency,
     (:func:`cablefam.physics.transfer_impedance.braid_transfer_impedance`); foil + braid and
     double braid: :func:`cablefam.physics.transfer_impedance.layered`.
     """
-    code = np.asarray(oc.construction)
-    b = np.asarray(b, dtype=float)
-    rho, f, mu_r = shield_resistivity, frequency, shield_relative_permeability
-    shape = np.broadcast_shapes(np.shape(code), np.shape(b), np.shape(f))
-    z = np.zeros(shape, dtype=complex)
-    if np.any(code == TUBE):
-        z = np.where(code == TUBE, zt.tube_transfer_impedance(b, c, rho, f, mu_r), z)
-    if np.any(code == FOIL):
-        z = np.where(code == FOIL, _foil_surfaces(oc, b, f)[0], z)
-    if np.any(_has(code, BRAID, FOIL_BRAID, DOUBLE_BRAID)):
-        z_t_b, z_i_b = _braid_surfaces(oc, _braid_radius(oc, b), rho, f, mu_r)
-        z = np.where(code == BRAID, z_t_b, z)
-        if np.any(code == FOIL_BRAID):
-            z_t_f, z_s_f = _foil_surfaces(oc, b, f)
-            z = np.where(code == FOIL_BRAID, zt.layered(z_t_f, z_s_f, z_s_f, z_t_b, z_i_b)[0], z)
-        if np.any(code == DOUBLE_BRAID):
-            outer_r = b + 2.0 * np.asarray(oc.wire_diameter, dtype=float)
-            z_t_2, z_i_2 = _braid_surfaces(oc, outer_r, rho, f, mu_r)
-            z = np.where(code == DOUBLE_BRAID, zt.layered(z_t_b, z_i_b, z_i_b, z_t_2, z_i_2)[0],
-                         z)
-    return z
+    return _by_construction(oc_, b, c, shield_resistivity, frequency,
+                            shield_relative_permeability, want_transfer=True)
+
+
+def transfer_impedance_summary(oc_: OuterConductor, b, c, shield_resistivity, frequency,
+                               band_frequencies=None, shield_relative_permeability=1.0):
+    r""":math:`|Z_T|` at ``frequency`` and its largest value over a band [ohm m^-1].
+
+    Parameters
+    ----------
+    oc_, b, c, shield_resistivity, shield_relative_permeability
+        As in :func:`transfer_impedance` (arrays of the designs, or scalars).
+    frequency : float
+        Operating frequency [Hz].
+    band_frequencies : array_like, optional
+        1-D sample frequencies of the screening band [Hz]; None: the frequency alone.
+
+    Returns
+    -------
+    tuple of numpy.ndarray
+        :math:`|Z_T(f)|` and :math:`\max_{band}|Z_T|` [ohm m^-1].
+
+    Notes
+    -----
+    A tube's and a foil's :math:`|Z_T|` fall monotonically with frequency (diffusion only:
+    :math:`|x/\sinh x|` with :math:`x = (1+j)t/\delta`), so their largest value is at the
+    lowest frequency of the band. A single or double braid (diffusion term falling, inductive
+    term rising) takes its largest value at an end of the band (measured on 20 000 random
+    braids over four bands against 200 samples: at most 2e-4 below for a braid, 2 % for a
+    double braid). A foil + braid has its peak inside the band (the foil's diffusion meets the
+    braid's inductance) and is taken over every sample (with 4 per decade at most 4 % below
+    the peak). The hole and braid inductances are computed once per design.
+    """
+    f0 = float(frequency)
+    band = None if band_frequencies is None else np.asarray(band_frequencies, float).ravel()
+    code = np.asarray(oc_.construction)
+    shape = np.broadcast_shapes(np.shape(code), np.shape(b), np.shape(c),
+                                np.shape(shield_resistivity),
+                                np.shape(shield_relative_permeability))
+    at_f, top = np.zeros(shape), np.zeros(shape)
+    for kind, mask, where in _groups(code, shape):
+        bb, cc, rho, mu = (_take(x, mask, shape) for x in (
+            b, c, shield_resistivity, shield_relative_permeability))
+        if band is None:
+            fk = np.array([f0])
+        elif kind in (TUBE, FOIL):  # monotonic: the band's largest value is at its bottom
+            fk = np.array([f0, band.min()])
+        elif kind == FOIL_BRAID:
+            fk = np.concatenate(([f0], band))
+        else:
+            fk = np.array([f0, band.min(), band.max()])
+        if kind == TUBE:
+            z = zt.tube_transfer_impedance(bb, cc, rho, fk[:, None], mu)
+        else:
+            sub = _subset(oc_, mask, shape)
+            geometry = (sub.carriers, sub.ends, sub.wire_diameter, sub.angle)
+            m1 = m2 = None
+            if kind != FOIL:
+                r1 = bb + (sub.foil_thickness if kind == FOIL_BRAID else 0.0)
+                m1 = zt.braid_transfer_inductance(r1, *geometry)
+            if kind == DOUBLE_BRAID:
+                m2 = zt.braid_transfer_inductance(bb + 2.0 * sub.wire_diameter, *geometry)
+            if kind == FOIL:
+                z = _foil_surfaces(sub, bb, fk[:, None])[0]
+            elif kind == BRAID:  # its own transfer impedance only (no surface impedance)
+                z = zt.braid_transfer_impedance(bb, *geometry, rho, fk[:, None], mu,
+                                                inductance=m1)
+            else:
+                z = _layers(kind, sub, bb, rho, fk[:, None], mu, (m1, m2))[0]
+        z = np.abs(z)
+        at_f[where] = z[0].reshape(np.shape(at_f[where]))
+        top[where] = (z[0] if band is None else z[1:].max(axis=0)).reshape(
+            np.shape(top[where]))
+    return at_f, top

@@ -148,11 +148,17 @@ def outer_quantities(d, op, out):
     out["braid_optical_coverage"] = np.where(braided, geo.optical_coverage, 0.0) + 0.0 * b
     rho_s = d.shield["resistivity_ohm_m"]
     mu_s = d.shield.get("relative_permeability", 1.0)
-    z_f = oc.transfer_impedance(outer, b, c, rho_s, op.frequency_hz, mu_s)
-    out["transfer_impedance_ohm_per_m"] = np.abs(z_f) + 0.0 * b
     band = getattr(op, "screening_band_hz", None)
-    curve = transfer_impedance_curve(d, screening_frequencies(op.frequency_hz, band))
-    out["transfer_impedance_max_ohm_per_m"] = np.broadcast_to(curve.max(axis=0), shape).copy()
+    if np.ndim(op.frequency_hz) == 0:
+        z_f, z_max = oc.transfer_impedance_summary(
+            outer, b, c, rho_s, op.frequency_hz,
+            None if band is None else screening_frequencies(op.frequency_hz, band), mu_s)
+    else:  # a frequency per design: |Z_T| at each, the band (if any) sampled on its own
+        z_f = np.abs(oc.transfer_impedance(outer, b, c, rho_s, op.frequency_hz, mu_s))
+        z_max = z_f if band is None else np.maximum(z_f, oc.transfer_impedance_summary(
+            outer, b, c, rho_s, band[0], screening_frequencies(band[0], band), mu_s)[1])
+    out["transfer_impedance_ohm_per_m"] = np.broadcast_to(z_f, shape).copy()
+    out["transfer_impedance_max_ohm_per_m"] = np.broadcast_to(z_max, shape).copy()
     if not np.any(code != oc.TUBE):
         return out
     tube = code == oc.TUBE
