@@ -34,6 +34,7 @@ from cablefam.optimizer.review.inspection import (REPORT_LAYOUT, Inspection, eng
                                                   inspect_loaded, profile_table)
 from cablefam.optimizer.review.sheet_figures import (cross_section_figure, frequency_figure,
                                                      front_position_figure, profile_figure)
+from cablefam.optimizer.review.sheet_screening import screening_sheet_figures, spec_of
 
 #: Points of the frequency sweep on a sheet.
 FREQUENCY_POINTS = 40
@@ -277,6 +278,8 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
             member_front, row, objectives, f"{member}: this design on the member's front"),
             "position on the member's front"),
     }
+    figures.update(screening_sheet_figures(design, spec_of(provenance, member),
+                                           figures["section"][0]))
     for key, (fig, alt) in figures.items():
         written = save_figure(fig, out_dir / f"{stem}-{key}", formats=("png",))
         paths += written
@@ -339,6 +342,8 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
         images["profiles"],
         Heading(2, "Attenuation and power handling versus frequency"),
         images["frequency"],
+        *([Heading(2, "Transfer impedance versus frequency"), images["screening"]]
+          if "screening" in images else []),
         Heading(2, "Position on the member's front"),
         images["front"],
         Heading(2, "Cautions"),

@@ -184,3 +184,14 @@ def test_sweep_bad_bounds_name_the_key(tmp_path):
     text = SWEEP.format(constructions='["tube"]', limit=1.0)
     with pytest.raises(InputError, match=r"braid_wire_diameter_m.*does not apply"):
         load_sweep(_write(tmp_path, text, "bad2.toml"))
+
+
+def test_design_sheet_of_a_braided_row_has_the_transfer_impedance_figure(tmp_path, cli):
+    run_dir, df = _sweep(tmp_path, '["braid"]', 2.0)
+    code, out, err = cli("pick", run_dir, "--top", "1", "--out", tmp_path / "sheets")
+    assert code == 0, err
+    pages = list((tmp_path / "sheets").glob("*.md"))
+    assert len(pages) == 1
+    text = pages[0].read_text()
+    assert "Transfer impedance versus frequency" in text
+    assert list((tmp_path / "sheets").glob("*-screening.png"))
