@@ -122,8 +122,8 @@ def braid_dc_resistance(carriers, ends, wire_diameter, angle, resistivity):
 
 
 def braid_mass(carriers, ends, wire_diameter, angle, density):
-    r"""Mass per metre of cable of a braid, along the lay, :math:`m = \rho_m N C\pi d^2/(4\cos\alpha)`
-    [kg m^-1] (``density`` [kg m^-3])."""
+    r"""Mass per metre of cable of a braid, along the lay [kg m^-1] (``density`` [kg m^-3]):
+    :math:`m = \rho_m N C\pi d^2/(4\cos\alpha)`."""
     return np.asarray(density, dtype=float) * braid_metal_area(carriers, ends, wire_diameter) / (
         np.cos(np.asarray(angle, dtype=float)))
 

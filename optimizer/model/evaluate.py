@@ -40,20 +40,16 @@ class Designs:
     """Offset of the centre conductor from the axis [m] (0: concentric)."""
     inner_strands: np.ndarray | int = 1
     """Strand count of the centre conductor (1: solid); ``inner_radius`` is then overall."""
-    # --- outer conductors as built (issue 12): None keeps every design a tube, as before ---
+    # outer conductors as built (issue 12; :mod:`.outer_conductor`): a code of
+    # physics.outer_conductor.CONSTRUCTIONS (None: every design a tube, as before; else
+    # shield_thickness is the radial build), braid wire [m], angle [rad], foil [m] and material
     shield_construction: np.ndarray | int | None = None
-    """Code of :data:`cablefam.physics.outer_conductor.CONSTRUCTIONS`; ``shield_thickness``
-    is then the radial build of the construction."""
     braid_carriers: np.ndarray | float = 16.0
     braid_ends: np.ndarray | float = 8.0
     braid_wire_diameter: np.ndarray | float = 1.27e-4
-    """[m]."""
     braid_angle: np.ndarray | float = 0.5235987755982988
-    """Braid angle to the axis [rad] (default 30 deg)."""
     foil_thickness: np.ndarray | float = 2.5e-5
-    """[m]."""
     foil: dict[str, np.ndarray] | None = None
-    """Material of the foil (None: the shield's)."""
 
     @property
     def shield_radius(self):
@@ -214,10 +210,12 @@ def _per_design(x, n):
 def _blockable(d: Designs, op: OperatingPoint, n):
     """Every array of the designs and the operating point is per design or a scalar."""
     values = [d.inner_radius, d.dielectric_radius, d.shield_thickness, d.jacket_thickness,
-              d.eccentricity, d.inner_strands, *_fields(op)[:-1], *_outer_values(d)]
+              d.eccentricity, d.inner_strands, *_fields(op),
+              *outer_conductor.design_values(d)]
     for table in (d.inner, d.shield, d.dielectric, d.jacket or {}, d.foil or {}):
         values.extend(table.values())
-    return all(x is None or np.ndim(x) == 0 or _per_design(x, n) for x in values)
+    return all(x is None or isinstance(x, tuple) or np.ndim(x) == 0 or _per_design(x, n)
+               for x in values)
 
 
 def _take_designs(d: Designs, index, n) -> Designs:
@@ -230,14 +228,8 @@ def _take_designs(d: Designs, index, n) -> Designs:
     return Designs(take(d.inner_radius), take(d.dielectric_radius), take(d.shield_thickness),
                    take(d.jacket_thickness), take_table(d.inner), take_table(d.shield),
                    take_table(d.dielectric), take_table(d.jacket), take(d.eccentricity),
-                   take(d.inner_strands), *(take(x) for x in _outer_values(d)),
+                   take(d.inner_strands), *(take(x) for x in outer_conductor.design_values(d)),
                    take_table(d.foil))
-
-
-def _outer_values(d: Designs):
-    """The outer-conductor arrays of :class:`Designs`, in field order (without ``foil``)."""
-    return [d.shield_construction, d.braid_carriers, d.braid_ends, d.braid_wire_diameter,
-            d.braid_angle, d.foil_thickness]
 
 
 def _take_operating_point(op: OperatingPoint, index, n) -> OperatingPoint:
@@ -293,7 +285,7 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
                 d.shield["resistivity_ohm_m"], d.shield["temperature_coefficient_per_k"],
                 np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
             dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
-            inner_strands=d.inner_strands, **_outer_fields_of(d))
+            inner_strands=d.inner_strands, **outer_conductor.design_fields(d))
         out = electromagnetic(hot, op, method, reference=d, geometry_factor=lam)
     else:
         out = electromagnetic(d, op, method, geometry_factor=lam)
@@ -347,10 +339,3 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
     if d.shield_construction is not None:
         outer_conductor.outer_quantities(d, op, out)
     return out
-
-
-def _outer_fields_of(d: Designs):
-    """The outer-conductor fields of ``d`` as keyword arguments of :class:`Designs`."""
-    names = ("shield_construction", "braid_carriers", "braid_ends", "braid_wire_diameter",
-             "braid_angle", "foil_thickness", "foil")
-    return {k: getattr(d, k) for k in names}

@@ -90,6 +90,21 @@ def foil_table(d):
     return d.shield if d.foil is None else {**d.shield, **d.foil}
 
 
+#: The outer-conductor fields of ``Designs``, in field order (``foil``, a table, last).
+FIELDS = ("shield_construction", "braid_carriers", "braid_ends", "braid_wire_diameter",
+          "braid_angle", "foil_thickness", "foil")
+
+
+def design_values(d):
+    """The outer-conductor arrays of designs ``d`` in field order (without ``foil``)."""
+    return [getattr(d, k) for k in FIELDS[:-1]]
+
+
+def design_fields(d):
+    """The outer-conductor fields of designs ``d`` as keyword arguments of ``Designs``."""
+    return {k: getattr(d, k) for k in FIELDS}
+
+
 def outer_of(d):
     """The OuterConductor of designs ``d`` for the physics, or None (every design a tube)."""
     if d.shield_construction is None:
@@ -124,8 +139,9 @@ def outer_quantities(d, op, out):
 
     New keys: ``braid_fill_factor``, ``braid_optical_coverage`` (0 for a foil or tube),
     ``shield_construction`` (the code of
-    :data:`cablefam.physics.outer_conductor.CONSTRUCTIONS`), ``transfer_impedance_ohm_per_m`` (|Z_T| at the operating
-    frequency), ``transfer_impedance_max_ohm_per_m`` (largest |Z_T| over the screening band).
+    :data:`cablefam.physics.outer_conductor.CONSTRUCTIONS`), ``transfer_impedance_ohm_per_m``
+    (|Z_T| at the operating frequency), ``transfer_impedance_max_ohm_per_m`` (largest |Z_T|
+    over the screening band), and the construction's variables (``braid_carriers``...).
     Corrected for non-tube designs: ``dc_resistance_shield_ohm_per_m``,
     ``dc_loop_resistance_ohm_per_km``, ``mass_kg_per_km``, ``cost_per_km``.
     """
