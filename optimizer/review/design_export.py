@@ -41,7 +41,7 @@ def _comment(text: str) -> str:
 def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
     """The design file's tables (materials inline) of one front row, its catalog name and
     where each material table comes from (``conductor id 'copper'``)."""
-    df, _ = read_front(run_dir)
+    df, provenance = read_front(run_dir)
     row = select_row(df, member, index, catalog)
     cat = run_catalog(run_dir, row["catalog"])
     doc: dict = {"name": f"{member}-{row['catalog']}-{index}",
@@ -60,6 +60,10 @@ def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
         ids[table] = f"{kind} id {mid!r}"
         doc[table] = cat.get(kind, mid, f"run {run_dir}").model_dump(exclude_none=True)
     doc["operating"] = {k: float(row[k]) for k in _OPERATING if not math.isnan(float(row[k]))}
+    band = next((m.get("screening_band_hz") for m in provenance.get("members", ())
+                 if m.get("name") == member), None)
+    if band is not None:  # the member's screening band (issue 12), for the same |Z_T| max
+        doc["operating"]["screening_band_hz"] = [float(v) for v in band]
     return doc, row["catalog"], ids
 
 
