@@ -48,10 +48,6 @@ class OuterConductor(NamedTuple):
     foil_relative_permeability: np.ndarray | float = 1.0
 
 
-def _has(code, *kinds):
-    return np.isin(np.asarray(code), kinds)
-
-
 def radial_build(oc: OuterConductor, shield_thickness):
     r"""Thickness of the shield layer :math:`c - b` of each design [m] (module docstring)."""
     code = np.asarray(oc.construction)
@@ -68,40 +64,58 @@ def _braid_radius(oc: OuterConductor, b):
                                                  np.asarray(oc.foil_thickness, dtype=float), 0.0)
 
 
-def dc_resistance(oc: OuterConductor, b, c, shield_resistivity):
+def dc_resistance(oc_: OuterConductor, b, c, shield_resistivity):
     r"""DC resistance per metre of the outer conductor [ohm m^-1].
 
     Tube: :math:`\rho/(\pi(c^2-b^2))`; foil: :func:`cablefam.physics.braid.foil_dc_resistance`;
     braid: :func:`cablefam.physics.braid.braid_dc_resistance` (along the lay); layers in
-    parallel.
+    parallel (a double braid: two equal braids).
     """
-    code = np.asarray(oc.construction)
-    r_tube = tube_dc_resistance(b, c, shield_resistivity)
-    r_braid = braid.braid_dc_resistance(oc.carriers, oc.ends, oc.wire_diameter, oc.angle,
-                                        shield_resistivity)
-    r_foil = braid.foil_dc_resistance(b, oc.foil_thickness, oc.foil_resistivity)
-    return np.select([code == TUBE, code == FOIL, code == BRAID, code == FOIL_BRAID],
-                     [r_tube, r_foil + 0.0 * r_tube, r_braid + 0.0 * r_tube,
-                      r_foil * r_braid / (r_foil + r_braid)], 0.5 * r_braid + 0.0 * r_tube)
+    code = np.asarray(oc_.construction)
+    shape = np.broadcast_shapes(np.shape(code), np.shape(b), np.shape(c),
+                                np.shape(shield_resistivity))
+    out = np.zeros(shape)
+    for kind, mask, where in _groups(code, shape):
+        bb, cc, rho = (_take(x, mask, shape) for x in (b, c, shield_resistivity))
+        sub = _subset(oc_, mask, shape)
+        if kind == TUBE:
+            r = tube_dc_resistance(bb, cc, rho)
+        else:
+            r_b = braid.braid_dc_resistance(sub.carriers, sub.ends, sub.wire_diameter,
+                                            sub.angle, rho)
+            r_f = braid.foil_dc_resistance(bb, sub.foil_thickness, sub.foil_resistivity)
+            r = {FOIL: r_f, BRAID: r_b, DOUBLE_BRAID: 0.5 * r_b}.get(
+                kind, r_f * r_b / (r_f + r_b))
+        out[where] = np.reshape(r, np.shape(out[where]))
+    return out
 
 
-def shield_mass(oc: OuterConductor, b, c, shield_density, foil_density):
+def shield_mass(oc_: OuterConductor, b, c, shield_density, foil_density):
     r"""Metal mass per metre of the outer conductor [kg m^-1].
 
     Tube: :math:`\rho_m\pi(c^2-b^2)`; braid: :func:`cablefam.physics.braid.braid_mass` (along
-    the lay), the outer braid of a double braid at its own (larger) radius with the same
-    carriers, ends and angle; foil: :math:`\rho_f\pi((b+t)^2-b^2)`.
+    the lay), the outer braid of a double braid with the same carriers, ends and angle; foil:
+    :math:`\rho_f\pi((b+t)^2-b^2)`.
     """
-    code = np.asarray(oc.construction)
-    b = np.asarray(b, dtype=float)
-    tube = np.asarray(shield_density, dtype=float) * np.pi * (np.asarray(c) ** 2 - b * b)
-    one_braid = braid.braid_mass(oc.carriers, oc.ends, oc.wire_diameter, oc.angle,
-                                 shield_density)
-    t_f = np.asarray(oc.foil_thickness, dtype=float)
-    foil = np.asarray(foil_density, dtype=float) * np.pi * t_f * (2.0 * b + t_f)
-    return np.select([code == TUBE, code == FOIL, code == BRAID, code == FOIL_BRAID],
-                     [tube, foil + 0.0 * tube, one_braid + 0.0 * tube, foil + one_braid],
-                     2.0 * one_braid + 0.0 * tube)
+    code = np.asarray(oc_.construction)
+    shape = np.broadcast_shapes(np.shape(code), np.shape(b), np.shape(c),
+                                np.shape(shield_density), np.shape(foil_density))
+    out = np.zeros(shape)
+    for kind, mask, where in _groups(code, shape):
+        bb, cc, rho_s, rho_f = (_take(x, mask, shape) for x in (
+            b, c, shield_density, foil_density))
+        sub = _subset(oc_, mask, shape)
+        if kind == TUBE:
+            m = rho_s * np.pi * (cc * cc - bb * bb)
+        else:
+            t_f = sub.foil_thickness
+            one_braid = braid.braid_mass(sub.carriers, sub.ends, sub.wire_diameter, sub.angle,
+                                         rho_s)
+            foil = rho_f * np.pi * t_f * (2.0 * bb + t_f)
+            m = {FOIL: foil, BRAID: one_braid, DOUBLE_BRAID: 2.0 * one_braid}.get(
+                kind, foil + one_braid)
+        out[where] = np.reshape(m, np.shape(out[where]))
+    return out
 
 
 def _take(x, mask, shape):
@@ -278,9 +292,9 @@ def transfer_impedance_summary(oc_: OuterConductor, b, c, shield_resistivity, fr
                 m2 = zt.braid_transfer_inductance(bb + 2.0 * sub.wire_diameter, *geometry)
             if kind == FOIL:
                 z = _foil_surfaces(sub, bb, fk[:, None])[0]
-            elif kind == BRAID:  # its own transfer impedance only (no surface impedance)
-                z = zt.braid_transfer_impedance(bb, *geometry, rho, fk[:, None], mu,
-                                                inductance=m1)
+            elif kind == BRAID:  # its own transfer impedance only, in real arithmetic
+                z = zt.braid_transfer_impedance_modulus(bb, *geometry, rho, fk[:, None], mu,
+                                                        inductance=m1)
             else:
                 z = _layers(kind, sub, bb, rho, fk[:, None], mu, (m1, m2))[0]
         z = np.abs(z)

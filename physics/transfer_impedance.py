@@ -46,6 +46,44 @@ def _gamma_t(thickness, resistivity, frequency, relative_permeability):
 _NEGLIGIBLE_DIFFUSION = 40.0
 
 
+def _diffusion_parts(u):
+    r"""Real and imaginary parts of :func:`_diffusion_factor` (real arithmetic only)."""
+    u = np.asarray(u, dtype=float)
+    far = u > _NEGLIGIBLE_DIFFUSION
+    if far.any():
+        re, im = np.zeros(u.shape), np.zeros(u.shape)
+        if not far.all():
+            re[~far], im[~far] = _diffusion_parts(u[~far])
+        return re, im
+    q = np.exp(-u)
+    q2 = q * q
+    den_re = (1.0 - q2) * np.cos(u)
+    den_im = (1.0 + q2) * np.sin(u)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        scale = 2.0 * u * q / (den_re * den_re + den_im * den_im)
+    small = u < 1e-8
+    return (np.where(small, 1.0, scale * (den_re + den_im)),
+            np.where(small, 0.0, scale * (den_re - den_im)))
+
+
+def braid_transfer_impedance_modulus(dielectric_radius, carriers, ends, wire_diameter, angle,
+                                     resistivity, frequency, relative_permeability=1.0,
+                                     inductance=None):
+    r""":math:`|Z_T|` of :func:`braid_transfer_impedance` in real arithmetic [ohm m^-1].
+
+    Same parameters; :math:`|Z_T|^2 = (R_0 F_r)^2 + (R_0 F_i + \omega M)^2` with
+    :math:`F = \gamma d/\sinh\gamma d = F_r + jF_i` and :math:`M = M_{12} + L_b`.
+    """
+    r0 = braid_dc_resistance(carriers, ends, wire_diameter, angle, resistivity)
+    f_re, f_im = _diffusion_parts(np.asarray(wire_diameter, dtype=float) / skin_depth(
+        resistivity, frequency, relative_permeability))
+    m = (braid_transfer_inductance(dielectric_radius, carriers, ends, wire_diameter, angle)
+         if inductance is None else np.asarray(inductance, dtype=float))
+    x = r0 * f_im + 2.0 * np.pi * np.asarray(frequency, dtype=float) * m
+    r = r0 * f_re
+    return np.sqrt(r * r + x * x)
+
+
 def _diffusion_factor(u):
     r""":math:`x/\sinh x` for :math:`x = (1+j)u`, :math:`u \ge 0` real, in real arithmetic.
 
