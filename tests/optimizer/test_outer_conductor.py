@@ -197,3 +197,29 @@ def test_design_sheet_of_a_braided_row_has_the_transfer_impedance_figure(tmp_pat
     assert "Transfer impedance versus frequency" in text
     assert "Re-evaluation differs" not in text
     assert list((tmp_path / "sheets").glob("*-screening.png"))
+
+
+def test_skin_depth_margin_at_the_lowest_band_frequency_and_fill_above_one():
+    from types import SimpleNamespace
+
+    from cablefam.optimizer.model.constraints import constraint_margins
+    from cablefam.optimizer.model.evaluate import Designs
+
+    d = Designs(np.array([0.5e-3, 0.5e-3]), np.array([1.75e-3, 1.75e-3]),
+                np.array([0.2e-3, 0.2e-3]), np.zeros(2), {}, {}, {}, None)
+    values = {"z0_ohm": np.full(2, 50.0), "te11_cutoff_hz": np.full(2, 1e12),
+              "outer_diameter_m": np.full(2, 5e-3), "skin_depth_shield_m": np.full(2, 10e-6),
+              "braid_fill_factor": np.array([0.0, 1.1]),
+              "braid_optical_coverage": np.array([0.0, 0.99])}
+    member = SimpleNamespace(impedance_ohm=50.0, impedance_tolerance_ohm=2.0, peak_voltage_v=None,
+                             power_w=None, single_mode_margin=0.0, frequency_hz=100e6,
+                             max_outer_diameter_m=None, min_shield_skin_depths=2.0,
+                             min_impedance_yield=None, screening_band_hz=[25e6, 1e9],
+                             max_transfer_impedance_ohm_per_m=None,
+                             min_braid_optical_coverage=None)
+    m = constraint_margins(values, d, member, None, None)
+    # the skin depth at 25 MHz is twice that at 100 MHz: need = 2 * 2 * 10 um = 40 um
+    assert m["shield_skin_depths"][0] == pytest.approx((0.2e-3 - 40e-6) / 40e-6)
+    # a tube has no braid; a braid with F = 1.1 violates by 0.1
+    assert m["braid_coverage"][0] == 1.0
+    assert m["braid_coverage"][1] == pytest.approx(-0.1)
