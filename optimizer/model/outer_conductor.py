@@ -228,3 +228,31 @@ def outer_geometry_keys(row) -> dict:
         value = float(row[key])
         keys[key] = int(round(value)) if key in ("braid_carriers", "braid_ends") else value
     return keys
+
+
+def thermal_shield_resistivity(d, frequency):
+    r"""Shield resistivity [ohm m] for the thermal model, which knows only a tube.
+
+    Tube designs (and populations without constructions) get the shield's own resistivity
+    (the same array: today's numbers). For a foil or braid, the resistivity of the tube of the
+    same radial build whose resistance at ``frequency`` equals the construction's at 20 degC:
+    with :math:`p = \partial\ln R_{tube}/\partial\ln\rho` (0.5 in the skin-effect regime, 1 at
+    DC; from a second tube evaluation at :math:`1.01\rho`),
+    :math:`\rho_{eff} = \rho\,(R_{outer}/R_{tube})^{1/p}`. The temperature coefficient then
+    scales it as it would the tube's (an approximation, stated in the README).
+    """
+    rho = d.shield["resistivity_ohm_m"]
+    outer = outer_of(d)
+    if outer is None or not np.any(np.asarray(outer.construction) != oc.TUBE):
+        return rho
+    from cablefam.physics.internal_impedance import tube_resistance_reactance
+
+    b, c = d.dielectric_radius, d.shield_radius
+    mu = d.shield.get("relative_permeability", 1.0)
+    r_tube = tube_resistance_reactance(b, c, rho, frequency, mu)[0]
+    r_tube_up = tube_resistance_reactance(b, c, 1.01 * rho, frequency, mu)[0]
+    p = np.clip(np.log(r_tube_up / r_tube) / np.log(1.01), 0.25, 1.0)
+    r_outer = oc.internal_impedance(outer, b, rho, frequency, mu)[0]
+    tube = np.asarray(outer.construction) == oc.TUBE
+    ratio = np.where(tube, 1.0, r_outer / np.where(tube, 1.0, r_tube))
+    return np.where(tube, rho, rho * ratio ** (1.0 / p))

@@ -223,3 +223,18 @@ def test_skin_depth_margin_at_the_lowest_band_frequency_and_fill_above_one():
     # a tube has no braid; a braid with F = 1.1 violates by 0.1
     assert m["braid_coverage"][0] == 1.0
     assert m["braid_coverage"][1] == pytest.approx(-0.1)
+
+
+@pytest.mark.parametrize("construction", ["braid", "double-braid"])
+def test_heat_of_a_braid_matches_its_attenuation(tmp_path, construction):
+    # identity: the heat per metre at power P is 2 alpha P (alpha in Np/m) for a matched
+    # line; the thermal model sees the braid through an equivalent tube resistivity, so this
+    # holds to the few per cent of the temperature rise along the iteration
+    text = BRAID.replace('"braid"', f'"{construction}"').replace(
+        "frequency_hz = 100e6", "frequency_hz = 100e6\npower_w = 20")
+    text = text.replace("[dielectric]", "[dielectric]\nthermal_resistivity_k_m_per_w = 3.5")
+    text = text.replace("[conductor]", "[conductor]\ntemperature_coefficient_per_k = 0.00393")
+    text = text.replace("[shield]", "[shield]\ntemperature_coefficient_per_k = 0.00393")
+    v = _values(_write(tmp_path, text))
+    alpha_np = v["attenuation_db_per_100m"][0] / 100.0 / (20.0 / math.log(10.0))
+    assert v["heat_w_per_m"][0] == pytest.approx(2.0 * alpha_np * 20.0, rel=0.03)
