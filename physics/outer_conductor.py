@@ -161,7 +161,13 @@ def _layers(kind, sub, b, rho, f, mu_r, inductances=None):
         return zt.layered(z_t_f, z_s_f, z_s_f, z_t_b, z_i_b)
     z_t_1, z_i_1 = _braid_surfaces(sub, b, rho, f, mu_r, m1)
     z_t_2, z_i_2 = _braid_surfaces(sub, b + 2.0 * sub.wire_diameter, rho, f, mu_r, m2)
-    return zt.layered(z_t_1, z_i_1, z_i_1, z_t_2, z_i_2)
+    # the line's current passes to the outer braid by diffusion through the inner one (its
+    # R0 gamma d / sinh(gamma d) part), not through the holes: the hole and braid inductances
+    # couple outside fields only, so they enter the pair's Z_T but not its Z_i
+    z_d_1 = z_t_1 - 2.0j * np.pi * f * (zt.braid_transfer_inductance(
+        b, sub.carriers, sub.ends, sub.wire_diameter, sub.angle) if m1 is None else m1)
+    return (zt.layered(z_t_1, z_i_1, z_i_1, z_t_2, z_i_2)[0],
+            zt.layered(z_d_1, z_i_1, z_i_1, z_t_2, z_i_2)[1])
 
 
 def _by_construction(oc_: OuterConductor, b, c, rho, f, mu_r, want_transfer):
@@ -192,10 +198,10 @@ def _groups(code, shape):
     """(code, mask for :func:`_take`, index into the full array) of each construction
     present; a population of one construction gets ``mask`` None (no copies)."""
     code_full = np.broadcast_to(code, shape)
-    kinds = np.unique(code_full)
-    if len(kinds) == 1:
-        return [(int(kinds[0]), None, Ellipsis)]
-    return [(int(k), code_full == k, code_full == k) for k in kinds]
+    first = code_full.flat[0] if code_full.size else 0
+    if code_full.size == 0 or np.all(code_full == first):  # one construction: no copies
+        return [(int(first), None, Ellipsis)]
+    return [(int(k), code_full == k, code_full == k) for k in np.unique(code_full)]
 
 
 def internal_impedance(oc_: OuterConductor, b, shield_resistivity, frequency,

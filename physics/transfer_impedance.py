@@ -10,7 +10,9 @@ transmission-line analogy, [1]_):
 
 with :math:`Z_{i}` the surface impedance seen from inside (return current inside),
 :math:`Z_{o}` that seen from outside. Both reduce to the parallel DC resistances at
-:math:`f \to 0`.
+:math:`f \to 0`. For a braid as the inner layer, :math:`Z_i` uses only its diffusion part of
+:math:`Z_{T1}` (the line's current reaches the outer layer through the metal; the hole and
+braid inductances couple outside fields and enter :math:`Z_T` only).
 
 References
 ----------
@@ -49,12 +51,7 @@ _NEGLIGIBLE_DIFFUSION = 40.0
 def _diffusion_parts(u):
     r"""Real and imaginary parts of :func:`_diffusion_factor` (real arithmetic only)."""
     u = np.asarray(u, dtype=float)
-    far = u > _NEGLIGIBLE_DIFFUSION
-    if far.any():
-        re, im = np.zeros(u.shape), np.zeros(u.shape)
-        if not far.all():
-            re[~far], im[~far] = _diffusion_parts(u[~far])
-        return re, im
+    # no special case for large u: the terms fall smoothly to ~0 (|denominator| -> 1)
     q = np.exp(-u)
     q2 = q * q
     den_re = (1.0 - q2) * np.cos(u)

@@ -237,21 +237,30 @@ def thermal_shield_resistivity(d, frequency):
     (the same array: today's numbers). For a foil or braid, the resistivity of the tube of the
     same radial build whose resistance at ``frequency`` equals the construction's at 20 degC:
     with :math:`p = \partial\ln R_{tube}/\partial\ln\rho` (0.5 in the skin-effect regime, 1 at
-    DC; from a second tube evaluation at :math:`1.01\rho`),
-    :math:`\rho_{eff} = \rho\,(R_{outer}/R_{tube})^{1/p}`. The temperature coefficient then
-    scales it as it would the tube's (an approximation, stated in the README).
+    DC; from a second evaluation at :math:`1.01\rho`),
+    :math:`\rho_{eff} = \rho\,(R_{outer}/R_{tube})^{1/p}`. :math:`R_{tube}` is the thin-wall
+    form :math:`\mathrm{Re}[\rho\,\gamma\coth(\gamma t)/(2\pi b)]` (exact in the
+    skin-effect limit, within :math:`t/2b` at DC). The temperature coefficient then scales it
+    as it would the tube's (an approximation, stated in the README).
     """
     rho = d.shield["resistivity_ohm_m"]
     outer = outer_of(d)
     if outer is None or not np.any(np.asarray(outer.construction) != oc.TUBE):
         return rho
-    from cablefam.physics.internal_impedance import tube_resistance_reactance
+    from cablefam.physics.skin import skin_depth
 
     b, c = d.dielectric_radius, d.shield_radius
     mu = d.shield.get("relative_permeability", 1.0)
-    r_tube = tube_resistance_reactance(b, c, rho, frequency, mu)[0]
-    r_tube_up = tube_resistance_reactance(b, c, 1.01 * rho, frequency, mu)[0]
-    p = np.clip(np.log(r_tube_up / r_tube) / np.log(1.01), 0.25, 1.0)
+
+    def r_tube(resistivity):
+        gamma = (1.0 + 1.0j) / skin_depth(resistivity, frequency, mu)
+        x = gamma * (c - b)
+        q = np.exp(-2.0 * x)
+        return (resistivity * gamma * (1.0 + q) / (1.0 - q) / (2.0 * np.pi * b)).real
+
+    r_t = r_tube(rho)
+    p = np.clip(np.log(r_tube(1.01 * rho) / r_t) / np.log(1.01), 0.25, 1.0)
+    r_tube = r_t
     r_outer = oc.internal_impedance(outer, b, rho, frequency, mu)[0]
     tube = np.asarray(outer.construction) == oc.TUBE
     ratio = np.where(tube, 1.0, r_outer / np.where(tube, 1.0, r_tube))
