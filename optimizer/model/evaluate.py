@@ -258,19 +258,20 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
     lam = eccentricity.geometry_factor(a_el, b, d.eccentricity)
     inputs = None
     if thermal_ok:
+        # a braid or foil enters the (tube) thermal model as an equivalent tube
+        shield_thermal = outer_conductor.thermal_shield_properties(d, op.frequency_hz)
         inputs = thermal.CoaxThermalInputs(
             a=a, b=b, c=c, d=rd, frequency=op.frequency_hz, ambient_c=op.ambient_c,
             inner_resistivity_20c=d.inner["resistivity_ohm_m"],
             inner_temperature_coefficient=d.inner["temperature_coefficient_per_k"],
-            shield_resistivity_20c=outer_conductor.thermal_shield_resistivity(
-                d, op.frequency_hz),
+            shield_resistivity_20c=shield_thermal[0],
             shield_temperature_coefficient=d.shield["temperature_coefficient_per_k"],
             relative_permittivity=diel["relative_permittivity"],
             loss_tangent=diel["loss_tangent"],
             dielectric_thermal_resistivity=diel["thermal_resistivity_k_m_per_w"],
             jacket_thermal_resistivity=jacket.get("thermal_resistivity_k_m_per_w", 1.0),
             inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
-            shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
+            shield_relative_permeability=shield_thermal[1],
             offset=d.eccentricity, inner_strands=d.inner_strands, geometry_factor=lam,
         )
     state = None

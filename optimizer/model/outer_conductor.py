@@ -230,38 +230,41 @@ def outer_geometry_keys(row) -> dict:
     return keys
 
 
-def thermal_shield_resistivity(d, frequency):
-    r"""Shield resistivity [ohm m] for the thermal model, which knows only a tube.
+def thermal_shield_properties(d, frequency):
+    r"""Shield resistivity [ohm m] and relative permeability [-] for the thermal model, which
+    knows only a tube.
 
-    Tube designs (and populations without constructions) get the shield's own resistivity
-    (the same array: today's numbers). For a foil or braid, the resistivity of the tube of the
-    same radial build whose resistance at ``frequency`` equals the construction's at 20 degC:
-    with :math:`p = \partial\ln R_{tube}/\partial\ln\rho` (0.5 in the skin-effect regime, 1 at
-    DC; from a second evaluation at :math:`1.01\rho`),
-    :math:`\rho_{eff} = \rho\,(R_{outer}/R_{tube})^{1/p}`. :math:`R_{tube}` is the thin-wall
-    form :math:`\mathrm{Re}[\rho\,\gamma\coth(\gamma t)/(2\pi b)]` (exact in the
-    skin-effect limit, within :math:`t/2b` at DC). The temperature coefficient then scales it
-    as it would the tube's (an approximation, stated in the README).
+    Tube designs (and populations without constructions) get the shield's own values (the
+    same arrays: today's numbers). A foil or braid gets a tube of the same radial build whose
+    resistance at ``frequency`` equals the construction's at 20 degC. In the skin-effect
+    regime (:math:`p = \partial\ln R_{tube}/\partial\ln\rho < 3/4`) the permeability is
+    scaled, :math:`\mu_{eff} = \mu_r (R_{outer}/R_{tube})^{1/p}` (the resistivity and its
+    temperature coefficient stay the wire's, so :math:`R \propto \sqrt{\rho(T)}` as for a
+    braid in that regime); nearer DC the resistivity,
+    :math:`\rho_{eff} = \rho (R_{outer}/R_{tube})^{1/p}`. :math:`R_{tube}` is the thin-wall
+    form :math:`\mathrm{Re}[\rho\gamma\coth(\gamma t)/(2\pi b)]` (exact in the skin-effect
+    limit, within :math:`t/2b` at DC), :math:`p` from a second evaluation at
+    :math:`1.01\rho`. An approximation, stated in the README.
     """
     rho = d.shield["resistivity_ohm_m"]
+    mu = d.shield.get("relative_permeability", 1.0)
     outer = outer_of(d)
     if outer is None or not np.any(np.asarray(outer.construction) != oc.TUBE):
-        return rho
+        return rho, mu
     from cablefam.physics.skin import skin_depth
 
     b, c = d.dielectric_radius, d.shield_radius
-    mu = d.shield.get("relative_permeability", 1.0)
 
     def r_tube(resistivity):
         gamma = (1.0 + 1.0j) / skin_depth(resistivity, frequency, mu)
-        x = gamma * (c - b)
-        q = np.exp(-2.0 * x)
+        q = np.exp(-2.0 * gamma * (c - b))
         return (resistivity * gamma * (1.0 + q) / (1.0 - q) / (2.0 * np.pi * b)).real
 
     r_t = r_tube(rho)
     p = np.clip(np.log(r_tube(1.01 * rho) / r_t) / np.log(1.01), 0.25, 1.0)
-    r_tube = r_t
     r_outer = oc.internal_impedance(outer, b, rho, frequency, mu)[0]
     tube = np.asarray(outer.construction) == oc.TUBE
-    ratio = np.where(tube, 1.0, r_outer / np.where(tube, 1.0, r_tube))
-    return np.where(tube, rho, rho * ratio ** (1.0 / p))
+    scale = np.where(tube, 1.0, (r_outer / r_t) ** (1.0 / p))
+    skin = p < 0.75
+    return (np.where(tube | skin, rho, rho * scale),
+            np.where(tube | ~skin, mu, mu * scale))
