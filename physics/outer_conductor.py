@@ -146,7 +146,7 @@ def _foil_surfaces(oc_, b, f):
     return zt.thin_tube_transfer_impedance(*args), zt.thin_tube_surface_impedance(*args)
 
 
-def _layers(kind, sub, b, rho, f, mu_r, inductances=None):
+def _layers(kind, sub, b, rho, f, mu_r, inductances=None, want_transfer=True):
     """(Z_T, Z_i) of the designs ``sub`` of one non-tube ``kind`` (1-D arrays, complex)."""
     if kind == FOIL:
         r_f, x_f = tube_resistance_reactance(b, b + sub.foil_thickness, sub.foil_resistivity,
@@ -159,15 +159,27 @@ def _layers(kind, sub, b, rho, f, mu_r, inductances=None):
         z_t_b, z_i_b = _braid_surfaces(sub, b + sub.foil_thickness, rho, f, mu_r, m1)
         z_t_f, z_s_f = _foil_surfaces(sub, b, f)
         return zt.layered(z_t_f, z_s_f, z_s_f, z_t_b, z_i_b)
-    z_t_1, z_i_1 = _braid_surfaces(sub, b, rho, f, mu_r, m1)
-    z_t_2, z_i_2 = _braid_surfaces(sub, b + 2.0 * sub.wire_diameter, rho, f, mu_r, m2)
     # the line's current passes to the outer braid by diffusion through the inner one (its
     # R0 gamma d / sinh(gamma d) part), not through the holes: the hole and braid inductances
     # couple outside fields only, so they enter the pair's Z_T but not its Z_i
-    z_d_1 = z_t_1 - 2.0j * np.pi * f * (zt.braid_transfer_inductance(
-        b, sub.carriers, sub.ends, sub.wire_diameter, sub.angle) if m1 is None else m1)
-    return (zt.layered(z_t_1, z_i_1, z_i_1, z_t_2, z_i_2)[0],
-            zt.layered(z_d_1, z_i_1, z_i_1, z_t_2, z_i_2)[1])
+    geometry = (sub.carriers, sub.ends, sub.wire_diameter, sub.angle)
+    z_d_1 = zt.braid_transfer_impedance(b, *geometry, rho, f, mu_r, inductance=0.0)
+    z_i_1 = complex_of(braid.braid_internal_impedance(b, *geometry, rho, f, mu_r))
+    outer_r = b + 2.0 * sub.wire_diameter
+    z_i_2 = complex_of(braid.braid_internal_impedance(outer_r, *geometry, rho, f, mu_r))
+    z_i = zt.layered(z_d_1, z_i_1, z_i_1, z_d_1, z_i_2)[1]  # (its Z_T2 is not used)
+    if not want_transfer:
+        return None, z_i
+    m1 = zt.braid_transfer_inductance(b, *geometry) if m1 is None else m1
+    m2 = zt.braid_transfer_inductance(outer_r, *geometry) if m2 is None else m2
+    omega = 2.0 * np.pi * np.asarray(f, dtype=float)
+    z_t_2 = zt.braid_transfer_impedance(outer_r, *geometry, rho, f, mu_r, inductance=m2)
+    return zt.layered(z_d_1 + 1.0j * omega * m1, z_i_1, z_i_1, z_t_2, z_i_2)[0], z_i
+
+
+def complex_of(parts):
+    """``R + jX`` of a ``(R, X)`` pair of arrays."""
+    return parts[0] + 1.0j * parts[1]
 
 
 def _by_construction(oc_: OuterConductor, b, c, rho, f, mu_r, want_transfer):
@@ -189,7 +201,8 @@ def _by_construction(oc_: OuterConductor, b, c, rho, f, mu_r, want_transfer):
                                                   sub.wire_diameter, sub.angle, *args[1:])
             value = r + 1.0j * x
         else:
-            value = _layers(int(kind), sub, *args)[0 if want_transfer else 1]
+            value = _layers(int(kind), sub, *args,
+                            want_transfer=want_transfer)[0 if want_transfer else 1]
         z[where] = value.reshape(np.shape(z[where]))
     return z
 
