@@ -14,7 +14,7 @@ from typing import NamedTuple
 
 import numpy as np
 
-from cablefam.physics import conductor_surface, eccentricity
+from cablefam.physics import conductor_surface, eccentricity, outer_conductor
 from cablefam.physics.eccentricity import impedance_per_geometry_factor  # noqa: F401 (re-export)
 from cablefam.physics.constants import epsilon_0, mu_0
 from cablefam.physics.internal_impedance import (tube_dc_resistance,
@@ -176,7 +176,7 @@ class ConductorImpedances(NamedTuple):
 def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity,
                          fixed: LineFixedParts, inner_relative_permeability=1.0,
                          shield_relative_permeability=1.0, method="auto",
-                         inner_surface=None, shield_surface=None):
+                         inner_surface=None, shield_surface=None, outer=None):
     r"""Internal impedances of the centre conductor and of the shield in the line.
 
     Parameters
@@ -190,6 +190,9 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
     inner_surface, shield_surface : cablefam.physics.conductor_surface.ConductorSurface, optional
         A clad or plated layer and the surface roughness of each conductor (None: homogeneous
         and smooth, the plain numbers bit for bit); see :func:`line_parameters`.
+    outer : cablefam.physics.outer_conductor.OuterConductor, optional
+        Braid and foil outer conductors (None: every shield is a tube; see
+        :func:`line_parameters`).
 
     Returns
     -------
@@ -208,8 +211,20 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
         inner_dc_resistivity = conductor_surface.inner_dc_resistivity(inner_resistivity,
                                                                       inner_surface)
     # --- end of the clad centre conductor ---
-    r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
-                                         shield_relative_permeability, method=method)
+    # --- outer conductors other than the tube (braid, foil; issue 12) ---
+    tube = True if outer is None else np.asarray(outer.construction) == 0
+    if np.any(tube):
+        r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
+                                             shield_relative_permeability, method=method)
+    if not np.all(tube):
+        r_o, x_o = outer_conductor.internal_impedance(outer, b, shield_resistivity, frequency,
+                                                      shield_relative_permeability)
+        if np.any(tube):
+            r_s, x_s = np.where(tube, r_s, r_o), np.where(tube, x_s, x_o)
+        else:
+            shape = np.broadcast_shapes(np.shape(r_i), np.shape(r_o))
+            r_s, x_s = np.broadcast_to(r_o, shape), np.broadcast_to(x_o, shape)
+    # --- end of the outer-conductor addition ---
     if fixed.inner_skin_effect_factor is not None:
         skin = fixed.inner_skin_effect_factor
         r_dc = wire_dc_resistance(a, inner_dc_resistivity) * fixed.inner_dc_resistance_factor
@@ -237,7 +252,7 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                     relative_permittivity, loss_tangent, inner_relative_permeability=1.0,
                     shield_relative_permeability=1.0, method="auto", offset=0.0,
                     inner_strands=1, geometry_factor=None, inner_surface=None,
-                    shield_surface=None):
+                    shield_surface=None, outer=None):
     r"""R, L, G, C of a coax at frequency :math:`f`, with exact conductor internal impedance.
 
     Parameters
@@ -274,6 +289,10 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
         each strand clad), the shield by the planar plating ratio
         (:func:`cablefam.physics.conductor_surface.planar_layer_impedance_ratio`); roughness
         by :func:`cablefam.physics.roughness.roughness_factor`. None: homogeneous and smooth.
+    outer : cablefam.physics.outer_conductor.OuterConductor, optional
+        Outer conductor per design (tube, foil, braid, foil + braid, double braid); the
+        shield's internal impedance of the non-tube ones is
+        :func:`cablefam.physics.outer_conductor.internal_impedance`. None: tubes.
 
     Returns
     -------
@@ -303,7 +322,8 @@ def line_parameters(a, b, c, frequency, inner_resistivity, shield_resistivity,
                              inner_strands, geometry_factor)
     z = conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivity, fixed,
                              inner_relative_permeability, shield_relative_permeability, method,
-                             inner_surface=inner_surface, shield_surface=shield_surface)
+                             inner_surface=inner_surface, shield_surface=shield_surface,
+                             outer=outer)
     ind = fixed.l_external + (z.x_inner + z.x_shield) / omega
     return LineParameters(r=z.r_inner + z.r_shield, l=ind, g=fixed.g, c=fixed.c,
                           r_inner=z.r_inner, r_shield=z.r_shield)

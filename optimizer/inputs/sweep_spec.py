@@ -27,6 +27,9 @@ Bounds = Annotated[list[float], Field(min_length=2, max_length=2)]
 #: Geometry decision variables, in the order of the decision vector.
 GEOMETRY_KEYS = ("inner_radius_m", "dielectric_radius_m", "shield_thickness_m",
                  "jacket_thickness_m")
+#: Outer-conductor decision variables (issue 12), after the geometry ones when present.
+OUTER_KEYS = ("braid_wire_diameter_m", "braid_angle_deg", "braid_carriers", "braid_ends",
+              "foil_thickness_m")
 #: Material subsets: sweep-file key -> (design table, catalog kind), one per material slot
 MATERIAL_KEYS = {s.sweep_key: (s.name, s.kind) for s in MATERIAL_SLOTS}
 _NAME = re.compile(r"^[A-Za-z0-9][A-Za-z0-9._-]*$")
@@ -69,6 +72,50 @@ class _SearchFields(Record):
         if v is not None and not 0.0 <= v[0] <= v[1] < 1.0:
             raise ValueError("bounds must satisfy 0 <= lower <= upper < 1")
         return v
+    # --- outer conductors as built (issue 12): absent = every design a tube, as before ---
+    shield_constructions: Annotated[list[Literal["tube", "foil", "braid", "foil-braid",
+                                                 "double-braid"]],
+                                    Field(min_length=1)] | None = None
+    braid_wire_diameter_m: Bounds | None = None
+    braid_angle_deg: Bounds | None = None
+    braid_carriers: Bounds | None = None
+    braid_ends: Bounds | None = None
+    foil_thickness_m: Bounds | None = None
+
+    @model_validator(mode="after")
+    def _outer_conductor_bounds(self):
+        """Bounds for every construction listed; angles in (0, 90) deg, counts integers."""
+        kinds = self.shield_constructions or ["tube"]
+        if len(set(kinds)) != len(kinds):
+            raise rule_error("shield_constructions", kinds, "constructions repeat")
+        need = set()
+        if any(k in ("braid", "foil-braid", "double-braid") for k in kinds):
+            need |= {"braid_wire_diameter_m", "braid_angle_deg", "braid_carriers", "braid_ends"}
+        if any(k in ("foil", "foil-braid") for k in kinds):
+            need.add("foil_thickness_m")
+        for key in ("braid_wire_diameter_m", "braid_angle_deg", "braid_carriers", "braid_ends",
+                    "foil_thickness_m"):
+            value = getattr(self, key)
+            if value is None:
+                if key in need:
+                    raise rule_error(key, None, f"required key is missing for "
+                                                f"shield_constructions = {kinds!r}")
+                continue
+            lo, hi = value
+            if key not in need:
+                raise rule_error(key, value, f"does not apply to shield_constructions = "
+                                             f"{kinds!r}")
+            if lo > hi:
+                raise rule_error(key, value, "lower bound is greater than upper bound")
+            if key == "braid_angle_deg" and not (0.0 < lo and hi < 90.0):
+                raise rule_error(key, value, "must lie in (0, 90) deg")
+            if key in ("braid_carriers", "braid_ends") and not (
+                    lo >= 1 and float(lo).is_integer() and float(hi).is_integer()):
+                raise rule_error(key, value, "bounds must be integers >= 1")
+            if key.endswith("_m") and not (0.0 < lo and hi < 0.01):
+                raise rule_error(key, value, "must lie in (0, 0.01) m")
+        return self
+    # --- end of the outer-conductor keys ---
 
     @field_validator("resolution")
     @classmethod
@@ -177,6 +224,20 @@ class MemberSpec(Record):
     # ratings on the safe side: standing wave (power_w is the delivered power) and sun
     vswr: Annotated[float, Field(ge=1.0, le=1e3)] = 1.0
     solar_irradiance_w_per_m2: Annotated[float, Field(ge=0, le=1500.0)] = 0.0
+    # --- screening (issue 12) ---
+    screening_band_hz: Annotated[list[Annotated[float, Field(gt=0, le=1e12)]],
+                                 Field(min_length=2, max_length=2)] | None = None
+    """[low, high] of the band of the transfer-impedance limit (default: the frequency)."""
+    max_transfer_impedance_ohm_per_m: Positive | None = None
+    min_braid_optical_coverage: Annotated[float, Field(gt=0.0, le=1.0)] | None = None
+
+    @model_validator(mode="after")
+    def _band_order(self):
+        band = self.screening_band_hz
+        if band is not None and not band[0] <= band[1]:
+            raise rule_error("screening_band_hz", band, "low must not exceed high")
+        return self
+    # --- end of the screening keys ---
 
     @field_validator("name")
     @classmethod

@@ -19,7 +19,9 @@ CONSTRAINTS = ("geometry", "impedance", "peak_field", "conductor_temperature",
                "jacket_temperature", "single_mode", "outer_diameter", "shield_skin_depths",
                "impedance_yield",
                # foamed dielectric by void fraction
-               "velocity_factor", "capacitance")
+               "velocity_factor", "capacitance",
+               # outer conductors and screening
+               "transfer_impedance", "braid_coverage")
 
 
 def geometry_margin(a, b):
@@ -76,6 +78,9 @@ def constraint_margins(values, designs, member, dielectric_max_c, jacket_max_c):
         m["outer_diameter"] = off
     if member.min_shield_skin_depths > 0:
         need = member.min_shield_skin_depths * values["skin_depth_shield_m"]
+        band = getattr(member, "screening_band_hz", None)
+        if band is not None:  # at the lowest frequency of the screening band
+            need = need * np.sqrt(member.frequency_hz / band[0])
         m["shield_skin_depths"] = (designs.shield_thickness - need) / need
     else:
         m["shield_skin_depths"] = off
@@ -90,5 +95,20 @@ def constraint_margins(values, designs, member, dielectric_max_c, jacket_max_c):
                             else (values["velocity_factor"] - vf_min) / vf_min)
     c_max = getattr(member, "max_capacitance_f_per_m", None)
     m["capacitance"] = off if c_max is None else (c_max - values["c_f_per_m"]) / c_max
+    limit = getattr(member, "max_transfer_impedance_ohm_per_m", None)
+    if limit is not None and "transfer_impedance_max_ohm_per_m" in values:
+        m["transfer_impedance"] = (limit - values["transfer_impedance_max_ohm_per_m"]) / limit
+    else:
+        m["transfer_impedance"] = off
+    cover = getattr(member, "min_braid_optical_coverage", None)
+    if "braid_fill_factor" in values:
+        # a braid needs F <= 1 (more wire does not fit) and, if asked, the coverage
+        fill = values["braid_fill_factor"]
+        margin = 1.0 - fill
+        if cover is not None:
+            margin = np.minimum(margin, (values["braid_optical_coverage"] - cover) / cover)
+        m["braid_coverage"] = np.where(fill > 0.0, margin, 1.0)  # tubes, foils: no braid
+    else:
+        m["braid_coverage"] = off
     return {k: np.where(np.isfinite(v), v, NON_FINITE_MARGIN).astype(float) * np.ones(shape)
             for k, v in ((k, m[k]) for k in CONSTRAINTS)}

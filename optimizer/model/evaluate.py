@@ -12,7 +12,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from cablefam.optimizer.model import conductor_layers, effective_dielectric, ratings
+from cablefam.optimizer.model import (conductor_layers, effective_dielectric, outer_conductor,
+                                      ratings)
 from cablefam.physics import (eccentricity, line, mass, modes, propagation, stranding,
                               thermal)
 from cablefam.physics.internal_impedance import tube_dc_resistance
@@ -40,6 +41,16 @@ class Designs:
     """Offset of the centre conductor from the axis [m] (0: concentric)."""
     inner_strands: np.ndarray | int = 1
     """Strand count of the centre conductor (1: solid); ``inner_radius`` is then overall."""
+    # outer conductors as built (issue 12; :mod:`.outer_conductor`): a code of
+    # physics.outer_conductor.CONSTRUCTIONS (None: every design a tube, as before; else
+    # shield_thickness is the radial build), braid wire [m], angle [rad], foil [m] and material
+    shield_construction: np.ndarray | int | None = None
+    braid_carriers: np.ndarray | float = 16.0
+    braid_ends: np.ndarray | float = 8.0
+    braid_wire_diameter: np.ndarray | float = 1.27e-4
+    braid_angle: np.ndarray | float = 0.5235987755982988
+    foil_thickness: np.ndarray | float = 2.5e-5
+    foil: dict[str, np.ndarray] | None = None
 
     @property
     def shield_radius(self):
@@ -66,6 +77,8 @@ class OperatingPoint:
     """Voltage standing-wave ratio (``power_w`` is then the delivered power)."""
     solar_irradiance_w_per_m2: float | np.ndarray = 0.0
     """Direct solar radiation on the cable [W m^-2] (model/ratings.py)."""
+    screening_band_hz: tuple[float, float] | None = None
+    """Band over which the largest transfer impedance is taken (None: the frequency alone)."""
 
 
 def _float_array(value, shape):
@@ -102,7 +115,8 @@ def electromagnetic(d: Designs, op: OperatingPoint, method="auto",
                               offset=d.eccentricity, inner_strands=d.inner_strands,
                               geometry_factor=lam,
                               inner_surface=conductor_layers.inner_surface(d),
-                              shield_surface=conductor_layers.shield_surface(d))
+                              shield_surface=conductor_layers.shield_surface(d),
+                              outer=outer_conductor.outer_of(d))
     return _line_quantities(d, op, lp, d if reference is None else reference, lam)
 
 
@@ -205,10 +219,12 @@ def _per_design(x, n):
 def _blockable(d: Designs, op: OperatingPoint, n):
     """Every array of the designs and the operating point is per design or a scalar."""
     values = [d.inner_radius, d.dielectric_radius, d.shield_thickness, d.jacket_thickness,
-              d.eccentricity, d.inner_strands, *_fields(op)]
-    for table in (d.inner, d.shield, d.dielectric, d.jacket or {}):
+              d.eccentricity, d.inner_strands, *_fields(op),
+              *outer_conductor.design_values(d)]
+    for table in (d.inner, d.shield, d.dielectric, d.jacket or {}, d.foil or {}):
         values.extend(table.values())
-    return all(x is None or np.ndim(x) == 0 or _per_design(x, n) for x in values)
+    return all(x is None or isinstance(x, tuple) or np.ndim(x) == 0 or _per_design(x, n)
+               for x in values)
 
 
 def _take_designs(d: Designs, index, n) -> Designs:
@@ -221,7 +237,8 @@ def _take_designs(d: Designs, index, n) -> Designs:
     return Designs(take(d.inner_radius), take(d.dielectric_radius), take(d.shield_thickness),
                    take(d.jacket_thickness), take_table(d.inner), take_table(d.shield),
                    take_table(d.dielectric), take_table(d.jacket), take(d.eccentricity),
-                   take(d.inner_strands))
+                   take(d.inner_strands), *(take(x) for x in outer_conductor.design_values(d)),
+                   take_table(d.foil))
 
 
 def _take_operating_point(op: OperatingPoint, index, n) -> OperatingPoint:
@@ -253,18 +270,20 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
     lam = eccentricity.geometry_factor(a_el, b, d.eccentricity)
     inputs = None
     if thermal_ok:
+        # a braid or foil enters the (tube) thermal model as an equivalent tube
+        shield_thermal = outer_conductor.thermal_shield_properties(d, op.frequency_hz)
         inputs = thermal.CoaxThermalInputs(
             a=a, b=b, c=c, d=rd, frequency=op.frequency_hz, ambient_c=op.ambient_c,
             inner_resistivity_20c=d.inner["resistivity_ohm_m"],
             inner_temperature_coefficient=d.inner["temperature_coefficient_per_k"],
-            shield_resistivity_20c=d.shield["resistivity_ohm_m"],
+            shield_resistivity_20c=shield_thermal[0],
             shield_temperature_coefficient=d.shield["temperature_coefficient_per_k"],
             relative_permittivity=diel["relative_permittivity"],
             loss_tangent=diel["loss_tangent"],
             dielectric_thermal_resistivity=diel["thermal_resistivity_k_m_per_w"],
             jacket_thermal_resistivity=jacket.get("thermal_resistivity_k_m_per_w", 1.0),
             inner_relative_permeability=d.inner.get("relative_permeability", 1.0),
-            shield_relative_permeability=d.shield.get("relative_permeability", 1.0),
+            shield_relative_permeability=shield_thermal[1],
             offset=d.eccentricity, inner_strands=d.inner_strands, geometry_factor=lam,
             **ratings.thermal_conditions(d, op),
             inner_surface=conductor_layers.inner_surface(d),
@@ -283,7 +302,7 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
                 d.shield["resistivity_ohm_m"], d.shield["temperature_coefficient_per_k"],
                 np.where(state.converged, state.shield_temperature_c, op.ambient_c))},
             dielectric=diel, jacket=d.jacket, eccentricity=d.eccentricity,
-            inner_strands=d.inner_strands)
+            inner_strands=d.inner_strands, **outer_conductor.design_fields(d))
         hot = conductor_layers.heated(  # each layer at its conductor's temperature
             hot, np.where(state.converged, state.conductor_temperature_c, op.ambient_c),
             np.where(state.converged, state.shield_temperature_c, op.ambient_c))
@@ -332,4 +351,6 @@ def _evaluate_block(d: Designs, op: OperatingPoint, method, include_max_power,
         jacket_max = jacket.get("max_temperature_c") if not no_jacket else None
         out["max_power_w"] = thermal.power_rating(inputs, diel["max_temperature_c"], jacket_max)
     out.update(dielectric_out)
+    if d.shield_construction is not None:
+        outer_conductor.outer_quantities(d, op, out)
     return out

@@ -97,6 +97,20 @@ _ALL = (
     Quantity("outer_diameter_m", "outer diameter", "m", _SIZE),
     Quantity("mass_kg_per_km", "mass", "kg/km", _SIZE),
     Quantity("cost_per_km", "material cost", "per km", _SIZE),
+    # --- outer conductors as built and screening (issue 12) ---
+    Quantity("shield_construction", "shield construction", "-", _LINE,
+             "code: 0 tube, 1 foil, 2 braid, 3 foil-braid, 4 double-braid"),
+    Quantity("braid_fill_factor", "braid fill factor", "-", _LINE, "F, MIL-C-17"),
+    Quantity("braid_optical_coverage", "braid optical coverage", "-", _LINE, "K = 2F - F^2"),
+    Quantity("transfer_impedance_ohm_per_m", "|transfer impedance|", "ohm/m", _LINE, "at f"),
+    Quantity("transfer_impedance_max_ohm_per_m", "max |transfer impedance|", "ohm/m", _LINE,
+             "over the screening band"),
+    Quantity("braid_carriers", "braid carriers", "-"),
+    Quantity("braid_ends", "braid ends (wires per carrier)", "-"),
+    Quantity("braid_wire_diameter_m", "braid wire diameter", "m"),
+    Quantity("braid_angle_deg", "braid angle", "deg"),
+    Quantity("foil_thickness_m", "foil thickness", "m"),
+    # --- end of the outer-conductor block ---
     # not in the report: a flag, the tolerance results, the decision variables
     Quantity("thermal_converged", "thermal steady state", "-"),
     Quantity("impedance_yield", "impedance yield", "-"),

@@ -15,6 +15,7 @@ from cablefam.optimizer.inputs.design_file import MATERIAL_TABLES
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.run_folder.reader import read_front, run_catalog
 from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS
+from cablefam.optimizer.model.outer_conductor import outer_geometry_keys
 
 _OPERATING = ("frequency_hz", "peak_voltage_v", "power_w", "ambient_c", "field_safety_factor",
               "vswr", "solar_irradiance_w_per_m2")
@@ -42,13 +43,17 @@ def _comment(text: str) -> str:
 def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
     """The design file's tables (materials inline) of one front row, its catalog name and
     where each material table comes from (``conductor id 'copper'``)."""
-    df, _ = read_front(run_dir)
+    df, provenance = read_front(run_dir)
     row = select_row(df, member, index, catalog)
     cat = run_catalog(run_dir, row["catalog"])
     doc: dict = {"name": f"{member}-{row['catalog']}-{index}",
                  "geometry": {k: float(row[k]) for k in GEOMETRY_KEYS}}
     if int(row.get("inner_strands", 1)) != 1:
         doc["geometry"]["inner_strands"] = int(row["inner_strands"])
+    outer = outer_geometry_keys(row)
+    if outer.get("shield_construction", "tube") != "tube":
+        del doc["geometry"]["shield_thickness_m"]  # the build follows from the layers
+    doc["geometry"].update(outer)
     ids = {}
     for table, (kind, _) in MATERIAL_TABLES.items():
         mid = row[table]
@@ -62,6 +67,10 @@ def _front_row_document(run_dir, member: str, index: int, catalog: str | None):
             doc[table] = inline_layer(doc[table], cat, f"run {run_dir}")
     doc["operating"] = {k: float(row[k]) for k in _OPERATING
                         if k in row and not math.isnan(float(row[k]))}
+    band = next((m.get("screening_band_hz") for m in provenance.get("members", ())
+                 if m.get("name") == member), None)
+    if band is not None:  # the member's screening band, for the same |Z_T| max
+        doc["operating"]["screening_band_hz"] = [float(v) for v in band]
     return doc, row["catalog"], ids
 
 

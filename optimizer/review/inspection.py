@@ -9,6 +9,7 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
+from cablefam.optimizer.model.outer_conductor import shield_build_m
 from cablefam.optimizer.cautions import CAUTION_LINES
 from cablefam.optimizer.inputs.design_file import Design, design_arrays, load_design
 from cablefam.optimizer.model.evaluate import evaluate
@@ -87,7 +88,7 @@ def format_report(result: Inspection) -> str:
     ids = ", ".join(f"{t} {m}" for t, m in d.material_ids.items() if m)
     if d.catalog is not None:
         lines.append(f"catalog     {d.catalog.name} ({d.catalog.path}): {ids}")
-    c = g.dielectric_radius_m + g.shield_thickness_m
+    c = g.dielectric_radius_m + shield_build_m(g)
     lines.append(f"geometry    a = {engineering(g.inner_radius_m, 'm')}, "
                  f"b = {engineering(g.dielectric_radius_m, 'm')}, "
                  f"c = {engineering(c, 'm')}, "
@@ -148,7 +149,7 @@ def profile_table(result: Inspection) -> pd.DataFrame:
     d, v = result.design, result.values
     g, o = d.geometry, d.operating
     a, b = g.inner_radius_m, g.dielectric_radius_m
-    c = b + g.shield_thickness_m
+    c = b + shield_build_m(g)
     z0 = v["z0_ohm"]
     re_z0 = v.get("z0_real_ohm", z0)  # matched line: P = |I|^2 Re Z0, |V| = |Z0| |I|
     current = o.current_a if o.current_a is not None else (

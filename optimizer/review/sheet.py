@@ -19,6 +19,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
+from cablefam.optimizer.model.outer_conductor import shield_build_m
 from cablefam.optimizer.atomic import write_text_atomic
 from cablefam.optimizer.cautions import CAUTION_LINES
 from cablefam.optimizer.errors import InputError
@@ -33,6 +34,7 @@ from cablefam.optimizer.review.inspection import (REPORT_LAYOUT, Inspection, eng
                                                   inspect_loaded, profile_table)
 from cablefam.optimizer.review.sheet_figures import (cross_section_figure, frequency_figure,
                                                      front_position_figure, profile_figure)
+from cablefam.optimizer.review.sheet_screening import screening_sheet_figures, spec_of
 
 #: Points of the frequency sweep on a sheet.
 FREQUENCY_POINTS = 40
@@ -242,7 +244,7 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
     values = result.values
     g = design.geometry
     a, b = g.inner_radius_m, g.dielectric_radius_m
-    c = b + g.shield_thickness_m
+    c = b + shield_build_m(g)
     d = c + g.jacket_thickness_m
     offset = float(getattr(g, "eccentricity_m", 0.0) or 0.0)
     stem = safe_name(f"{member}-{catalog}-{index}")
@@ -276,6 +278,8 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
             member_front, row, objectives, f"{member}: this design on the member's front"),
             "position on the member's front"),
     }
+    figures.update(screening_sheet_figures(design, spec_of(provenance, member),
+                                           figures["section"][0]))
     for key, (fig, alt) in figures.items():
         written = save_figure(fig, out_dir / f"{stem}-{key}", formats=("png",))
         paths += written
@@ -299,7 +303,7 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
             ("dielectric radius b", engineering(b, "m")),
             ("shield outer radius c", engineering(c, "m")),
             ("outer radius d", engineering(d, "m")),
-            ("shield thickness", engineering(g.shield_thickness_m, "m")),
+            ("shield thickness", engineering(shield_build_m(g), "m")),
             ("jacket thickness", engineering(g.jacket_thickness_m, "m")),
             ("centre-conductor offset (eccentricity)", engineering(offset, "m")),
             ("b/a", f"{b / a:.4g}"))),
@@ -338,6 +342,8 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
         images["profiles"],
         Heading(2, "Attenuation and power handling versus frequency"),
         images["frequency"],
+        *([Heading(2, "Transfer impedance versus frequency"), images["screening"]]
+          if "screening" in images else []),
         Heading(2, "Position on the member's front"),
         images["front"],
         Heading(2, "Cautions"),

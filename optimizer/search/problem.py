@@ -27,7 +27,8 @@ from cablefam.optimizer.search.impedance_target import (dielectric_radius_lossle
                                                         solve_dielectric_radius, target_impedance)
 from cablefam.optimizer.model.objectives import OBJECTIVES, objective_matrix
 from cablefam.optimizer.model.slots import SLOT_KINDS, SLOT_NAMES
-from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS, MemberSpec, Sweep
+from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS, OUTER_KEYS, MemberSpec, Sweep
+from cablefam.optimizer.search import outer_variables
 from cablefam.optimizer.model.tolerance import (common_draws, impedance_yield_analytic,
                                  impedance_yield_monte_carlo)
 from cablefam.optimizer.model.effective_dielectric import resolve_table
@@ -101,7 +102,7 @@ class Layout:
         n = x.shape[0]
         geometry = {}
         col = 0
-        for key in GEOMETRY_KEYS:
+        for key in GEOMETRY_KEYS + tuple(k for k in OUTER_KEYS if k in self.bounds):
             if key in self.free_geometry:
                 name = (IMPEDANCE_OFFSET if key == "dielectric_radius_m"
                         and self.impedance_construction else key)
@@ -119,7 +120,7 @@ class Layout:
             geometry["inner_radius_m"] = 0.5 * snap_to_sizes(2.0 * geometry["inner_radius_m"],
                                                              2.0 * self.inner_radius_sizes)
         indices = {}
-        for table in SLOT_NAMES:
+        for table in SLOT_NAMES + outer_variables.categorical(self):
             if table in self.free_materials:
                 k = len(self.material_ids[table])
                 indices[table] = np.clip(np.floor(x[:, col] + 0.5), 0, k - 1).astype(int)
@@ -137,6 +138,9 @@ def make_layout(sweep: Sweep, catalog_name: str) -> Layout:
     free_geometry = tuple(k for k in GEOMETRY_KEYS if bounds[k][1] > bounds[k][0])
     ids = sweep.materials[catalog_name]
     free_materials = tuple(t for t in SLOT_NAMES if len(ids.get(t, ())) > 1)
+    # outer conductors (issue 12): their bounds, free variables and construction choice
+    bounds, free_geometry, ids, free_materials = outer_variables.extend_layout(
+        s, bounds, free_geometry, ids, free_materials)
     sizes = None
     if s.inner_diameter_series is not None:
         radii = 0.5 * standard_diameters(s.inner_diameter_series)
@@ -201,7 +205,8 @@ class MemberProblem(Problem):
         a_lo, a_hi = bounds["inner_radius_m"]
         b_lo, b_hi = bounds["dielectric_radius_m"]
         if m.max_outer_diameter_m is not None:
-            b_hi = min(b_hi, 0.5 * m.max_outer_diameter_m - bounds["shield_thickness_m"][0]
+            b_hi = min(b_hi, 0.5 * m.max_outer_diameter_m
+                       - outer_variables.min_build(self.layout)
                        - bounds["jacket_thickness_m"][0])
         eps_min, eps_max = effective_permittivity_range(  # of the foamed, dispersive dielectric
             self._tables["dielectric"], self._foamable, bounds.get(VOID_FRACTION), m.frequency_hz)
@@ -257,13 +262,14 @@ class MemberProblem(Problem):
         b = geometry["dielectric_radius_m"]
         # b <= a is a constraint violation, not an error: compute with a harmless b instead
         b_safe = np.where(b >= MIN_RADIUS_RATIO * a, b, 1.5 * a)
-        computed = Designs(a, b_safe, geometry["shield_thickness_m"],
+        outer = outer_variables.design_fields(self.layout, geometry, idx)
+        computed = Designs(a, b_safe, outer.pop("shield_thickness"),
                            geometry["jacket_thickness_m"], inner=pick("conductor"),
                            shield=pick("shield"), dielectric=dielectric,
-                           jacket=pick("jacket"), inner_strands=strands)
+                           jacket=pick("jacket"), inner_strands=strands, **outer)
         actual = Designs(a, b, computed.shield_thickness, computed.jacket_thickness,
                          computed.inner, computed.shield, computed.dielectric, computed.jacket,
-                         inner_strands=strands)
+                         inner_strands=strands, **outer)
         return computed, actual, idx
 
     def constructed_dielectric_radius(self, geometry, inner, shield, dielectric):
@@ -286,7 +292,9 @@ class MemberProblem(Problem):
         return OperatingPoint(frequency_hz=m.frequency_hz, peak_voltage_v=m.peak_voltage_v,
                               field_safety_factor=m.field_safety_factor, power_w=m.power_w,
                               ambient_c=m.ambient_c, vswr=m.vswr,
-                              solar_irradiance_w_per_m2=m.solar_irradiance_w_per_m2)
+                              solar_irradiance_w_per_m2=m.solar_irradiance_w_per_m2,
+                              screening_band_hz=(None if m.screening_band_hz is None
+                                                 else tuple(m.screening_band_hz)))
 
     @property
     def yield_in_search(self) -> bool:
