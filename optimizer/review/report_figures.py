@@ -22,7 +22,6 @@ import math
 import numpy as np
 import pandas as pd
 
-from cablefam.optimizer.inputs.sweep_spec import GEOMETRY_KEYS
 from cablefam.optimizer.model.objectives import OBJECTIVES
 from cablefam.optimizer.model.quantities import QUANTITIES, display
 from cablefam.optimizer.model.slots import SLOT_NAMES
@@ -166,10 +165,15 @@ def front_figure(member: str, front: pd.DataFrame, objectives, picks: pd.DataFra
     return {"data": data, "layout": layout}
 
 
+#: Axes of the parallel-coordinates view after the objectives (when they vary on the front);
+#: few, since each axis costs drawing time where WebGL runs in software.
+PARALLEL_COLUMNS = ("inner_radius_m", "dielectric_radius_m", "shield_thickness_m",
+                    "outer_diameter_m", "z0_ohm")
+
+
 def parallel_columns(front: pd.DataFrame, objectives) -> list[str]:
     cols = [OBJECTIVES[o].column for o in objectives]
-    cols += [c for c in (*GEOMETRY_KEYS, "outer_diameter_m", "z0_ohm", "max_power_w",
-                         "cost_per_km") if c not in cols and _usable(front, c)]
+    cols += [c for c in PARALLEL_COLUMNS if c not in cols and _usable(front, c)]
     return cols
 
 

@@ -21,6 +21,7 @@ import json
 
 #: Plotly configuration of every plot: no logo link, no cloud button, resizes with the page.
 PLOT_CONFIG = {"responsive": True, "displaylogo": False, "showLink": False,
+               "plotGlPixelRatio": 1,
                "modeBarButtonsToRemove": ["sendDataToCloud", "lasso2d"],
                "toImageButtonOptions": {"format": "png", "scale": 2}}
 

@@ -9,7 +9,7 @@ import pandas as pd
 
 from cablefam.optimizer.cautions import CAUTION_LINES
 from cablefam.optimizer.model.objectives import OBJECTIVES
-from cablefam.optimizer.model.quantities import MEMBER_KEYS, display, member_label
+from cablefam.optimizer.model.quantities import display
 from cablefam.optimizer.model.slots import SLOT_NAMES
 from cablefam.optimizer.review.compare import REFERENCE_FACTOR
 from cablefam.optimizer.review.figure_style import safe_name
@@ -65,16 +65,10 @@ def header_section(contents, comparison) -> list[str]:
 
 
 def _spec_table(spec: dict) -> str:
-    rows = []
-    for key, value in spec.items():
-        if key == "name":
-            continue
-        q = MEMBER_KEYS.get(key)
-        factor, unit = (1e3, "mm") if q is not None and q.unit == "m" else (1.0, None)
-        text = "not set" if value is None else num(factor * value if isinstance(
-            value, (int, float)) else value, ".6g")
-        label = member_label(key) if unit is None else f"{q.label} [{unit}]"
-        rows.append((e(label), text, f"<code>{e(key)}</code>"))
+    from cablefam.optimizer.review.sheet import member_rows
+
+    rows = [(e(label), e(value), f"<code>{e(key)}</code>")
+            for label, value, key in member_rows(spec) if key != "name"]
     return table(("operating point / limit", "value", "sweep-file key"), rows, numeric=(1,))
 
 
@@ -165,8 +159,6 @@ def member_section(n, member, front, objectives, contents, mc, picks, links, bin
     spec = next((m for m in contents.provenance.get("members", ())
                  if m.get("name") == member), {})
     out = [f"<h2 id=\"{_anchor(member)}\">Member {e(member)}</h2>"]
-    if mc is not None:
-        out.append(f"<p class=\"verdict\">{e(mc.verdict)}</p>")
     if front.empty:
         out.append("<p>No feasible design was found for this member.</p>")
         return out + ["<h3>Operating point and limits</h3>", _spec_table(spec)]
@@ -180,7 +172,7 @@ def member_section(n, member, front, objectives, contents, mc, picks, links, bin
             "<h3>Top picks</h3>"]
     out += _picks_table(picks, objectives, links, result, contents.run_dir)
     if mc is not None:
-        out.append("<h3>Catalogs compared</h3>")
+        out += ["<h3>Catalogs compared</h3>", f"<p class=\"verdict\">{e(mc.verdict)}</p>"]
         out += _compare_tables(mc, objectives)
     out += ["<h3>Binding constraints</h3>"]
     out += _binding_table(binding, threshold)

@@ -120,8 +120,10 @@ def _quantity_rows(values: dict[str, float]) -> list[Table | Heading]:
     return blocks
 
 
-def _member_rows(spec: dict) -> Table:
-    """The member's operating point and limits: label, value with unit, sweep-file key."""
+def member_rows(spec: dict) -> list[tuple[str, str, str]]:
+    """The member's operating point and limits as (label, value with unit, sweep-file key)
+    (labels from :data:`cablefam.optimizer.model.quantities.MEMBER_KEYS`); the report's
+    table too."""
     rows = []
     for key, value in spec.items():
         q = MEMBER_KEYS.get(key)
@@ -134,7 +136,7 @@ def _member_rows(spec: dict) -> Table:
         else:
             text = _fmt(float(value) if isinstance(value, int) else value)
         rows.append((q.label if q is not None else key, text, key))
-    return Table(("quantity", "value", "key"), tuple(rows))
+    return rows
 
 
 def _relative_href(target: Path, start: Path) -> str:
@@ -241,7 +243,7 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
         Link(report_href, "Run report", f" (all members, fronts, picks; made by `cablefam "
              f"report {run_dir}`)"),
         Heading(2, "Member specification (operating point and limits)"),
-        _member_rows(spec),
+        Table(("quantity", "value", "key"), tuple(member_rows(spec))),
         Heading(2, "Geometry"),
         Table(("dimension", "value"), (
             ("centre-conductor radius a", engineering(a, "m")),
