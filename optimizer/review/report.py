@@ -21,7 +21,6 @@ new sheets.
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -144,11 +143,10 @@ def binding_constraints(front: pd.DataFrame, picks: pd.DataFrame,
 
 
 def sheet_name(member: str, catalog: str, index: int) -> str:
-    """File name of a design sheet (as :func:`cablefam.optimizer.review.sheet.design_sheet`
-    names it)."""
-    from cablefam.optimizer.review.figure_style import safe_name
+    """File name of a design sheet's HTML page (:func:`cablefam.optimizer.review.sheet.sheet_stem`)."""
+    from cablefam.optimizer.review.sheet import sheet_stem
 
-    return safe_name(f"{member}-{catalog}-{int(index)}") + ".html"
+    return sheet_stem(member, catalog, index) + ".html"
 
 
 def _relative(target: Path, start: Path) -> str:
@@ -247,11 +245,3 @@ def format_report_summary(report: Report) -> str:
     lines += [f"missing: {m}" for m in report.missing]
     return "\n".join(lines)
 
-
-def finite_or_none(v):
-    """A float for JSON and tables; None for NaN, inf and None."""
-    try:
-        v = float(v)
-    except (TypeError, ValueError):
-        return None
-    return v if math.isfinite(v) else None

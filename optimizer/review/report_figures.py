@@ -23,7 +23,7 @@ import numpy as np
 import pandas as pd
 
 from cablefam.optimizer.model.objectives import OBJECTIVES
-from cablefam.optimizer.model.quantities import QUANTITIES, display
+from cablefam.optimizer.model.quantities import display
 from cablefam.optimizer.model.slots import SLOT_NAMES
 from cablefam.optimizer.review.figure_style import PALETTE
 
@@ -204,7 +204,3 @@ def parallel_figure(member: str, front: pd.DataFrame, objectives, catalogs) -> d
     return {"data": [{"type": "parcoords", "line": line, "dimensions": dims,
                       "labelangle": -20, "labelside": "top"}], "layout": layout}
 
-
-def quantity_label(key: str) -> str:
-    """Label with the shown unit of a front column (objective or quantity)."""
-    return display(key)[1] if key in QUANTITIES else key

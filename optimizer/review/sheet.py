@@ -120,6 +120,11 @@ def _quantity_rows(values: dict[str, float]) -> list[Table | Heading]:
     return blocks
 
 
+def sheet_stem(member: str, catalog: str, index: int) -> str:
+    """File name stem of a design's sheet (``.md``, ``.html`` and its PNGs)."""
+    return safe_name(f"{member}-{catalog}-{int(index)}")
+
+
 def member_rows(spec: dict) -> list[tuple[str, str, str]]:
     """The member's operating point and limits as (label, value with unit, sweep-file key)
     (labels from :data:`cablefam.optimizer.model.quantities.MEMBER_KEYS`); the report's
@@ -194,7 +199,7 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
     c = b + g.shield_thickness_m
     d = c + g.jacket_thickness_m
     offset = float(getattr(g, "eccentricity_m", 0.0) or 0.0)
-    stem = safe_name(f"{member}-{catalog}-{index}")
+    stem = sheet_stem(member, catalog, index)
     ids = {t: row.get(t) for t in SLOTS}
     names = {t: f"{ids[t]}" for t in ids if ids[t]}
 
