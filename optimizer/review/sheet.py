@@ -130,7 +130,10 @@ def member_rows(spec: dict) -> list[tuple[str, str, str]]:
     (labels from :data:`cablefam.optimizer.model.quantities.MEMBER_KEYS`); the report's
     table too."""
     rows = []
-    for key, value in spec.items():
+    known = list(MEMBER_KEYS)
+    ordered = sorted(spec, key=lambda k: known.index(k) if k in known else len(known))
+    for key in ordered:  # the table's order (provenance JSON keeps them sorted by name)
+        value = spec[key]
         q = MEMBER_KEYS.get(key)
         if key == "name" or q is None:
             text = _fmt(value)
