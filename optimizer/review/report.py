@@ -197,6 +197,7 @@ def build_report(run_dir, out=None, *, sheets: bool = True, top: int = REPORT_PI
     from cablefam.optimizer.review.pick import pick
     from cablefam.optimizer.review.report_page import render_page
     from cablefam.optimizer.review.report_sections import (header_section, member_section,
+                                                           parallel_section,
                                                            provenance_section)
 
     contents = read_run_contents(run_dir)
@@ -215,6 +216,7 @@ def build_report(run_dir, out=None, *, sheets: bool = True, top: int = REPORT_PI
         body += member_section(n, member, front, objectives, contents, by_member.get(member),
                                picks, links, binding_constraints(front, picks), result,
                                BINDING_MARGIN)
+    body += parallel_section(contents, objectives)
     body += provenance_section(contents)
     title = f"cablefam report: {contents.provenance.get('sweep_name', run_dir.name)}"
     page = render_page(title, body, bundle)

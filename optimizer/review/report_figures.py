@@ -126,8 +126,10 @@ def front_figure(member: str, front: pd.DataFrame, objectives, picks: pd.DataFra
     cy = cols[1] if len(cols) > 1 else cols[0]
     colours = catalog_colours(catalogs)
     data, frames = [], []
-    for n, cat in enumerate(catalogs):
+    for n, cat in enumerate(catalogs):  # colour and marker by position among all catalogs
         df = front[front["catalog"] == cat]
+        if df.empty:
+            continue
         custom, template = _hover(df, objectives)
         data.append({"type": "scatter", "mode": "markers", "name": f"catalog {cat}",
                      "meta": cat, "x": _scaled(df, cx), "y": _scaled(df, cy),
@@ -177,9 +179,9 @@ def parallel_columns(front: pd.DataFrame, objectives) -> list[str]:
     return cols
 
 
-def parallel_figure(member: str, front: pd.DataFrame, objectives, catalogs) -> dict:
-    """Parallel coordinates of the member's front, lines coloured by catalog; brushing an
-    axis filters the lines."""
+def parallel_trace(front: pd.DataFrame, objectives, catalogs) -> dict:
+    """One member's front as a ``parcoords`` trace, lines coloured by catalog (the last axis
+    is the catalog too, so no information rests on colour alone)."""
     cols = parallel_columns(front, objectives)
     colours = catalog_colours(catalogs)
     code = {c: k for k, c in enumerate(catalogs)}
@@ -199,8 +201,33 @@ def parallel_figure(member: str, front: pd.DataFrame, objectives, catalogs) -> d
     values = np.array([code[c] for c in front["catalog"]], dtype=float)
     line = {"color": ((values + 0.5) / n).tolist(), "colorscale": scale, "cmin": 0.0,
             "cmax": 1.0, "showscale": False}
-    layout = {"height": PLOT_HEIGHT_PX, "font": FONT,
-              "margin": {"l": 70, "r": 70, "t": 90, "b": 40}}
-    return {"data": [{"type": "parcoords", "line": line, "dimensions": dims,
-                      "labelangle": -20, "labelside": "top"}], "layout": layout}
+    return {"type": "parcoords", "line": line, "dimensions": dims, "labelangle": -20,
+            "labelside": "top"}
 
+
+def parallel_figure(fronts: dict[str, pd.DataFrame], objectives, catalogs) -> dict:
+    """Parallel coordinates of every member's front in one figure, one member shown at a
+    time (a menu chooses it); brushing an axis filters the lines.
+
+    One figure rather than one per member: each figure sets up its own WebGL layers, which
+    takes about a second where WebGL runs in software; the traces of one figure share them.
+    """
+    members = [m for m, f in fronts.items() if len(f)]
+    data = []
+    for k, m in enumerate(members):
+        trace = parallel_trace(fronts[m], objectives, catalogs)
+        trace["name"] = m
+        trace["visible"] = k == 0
+        data.append(trace)
+    buttons = [{"label": m, "method": "update",
+                "args": [{"visible": [j == k for j in range(len(members))]},
+                         {"title.text": f"member {m}"}]} for k, m in enumerate(members)]
+    layout = {"height": PLOT_HEIGHT_PX + 40, "font": FONT,
+              "title": {"text": f"member {members[0]}" if members else "", "x": 0.2,
+                        "y": 0.985},
+              "margin": {"l": 70, "r": 70, "t": 130, "b": 40},
+              "updatemenus": [{"buttons": buttons, "direction": "down", "active": 0,
+                               "x": 0.0, "xanchor": "left", "y": 1.3, "yanchor": "top",
+                               "bgcolor": "#FFFFFF", "bordercolor": "#888888",
+                               "font": {"size": 12}}]}
+    return {"data": data, "layout": layout}

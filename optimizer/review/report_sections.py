@@ -53,7 +53,8 @@ def header_section(contents, comparison) -> list[str]:
            f"{e(when)}. Objectives: {e(objectives)}. Catalogs: "
            f"{e(', '.join(contents.catalogs))}.</p>",
            "<nav>" + "".join(f"<a href=\"#{_anchor(m)}\">{e(m)}</a>" for m in contents.members)
-           + "<a href=\"#provenance\">provenance</a><a href=\"#cautions\">cautions</a></nav>",
+           + "<a href=\"#parallel-coordinates\">parallel coordinates</a>"
+           "<a href=\"#provenance\">provenance</a><a href=\"#cautions\">cautions</a></nav>",
            f"<div class=\"caution\" id=\"cautions\">{e(' '.join(CAUTION_LINES))}</div>"]
     if contents.missing:
         out.append("<div class=\"missing\"><b>Missing from the run folder</b> (the report "
@@ -167,8 +168,7 @@ def member_section(n, member, front, objectives, contents, mc, picks, links, bin
             "choose the quantities on the axes with the menus; click a catalog in the legend "
             "to hide it, double-click to show it alone. Stars: the picks below.</p>",
             plot_block(f"front-{n}", front_figure(member, front, objectives, picks,
-                                                  [c for c in contents.catalogs
-                                                   if (front["catalog"] == c).any()])),
+                                                  contents.catalogs)),
             "<h3>Top picks</h3>"]
     out += _picks_table(picks, objectives, links, result, contents.run_dir)
     if mc is not None:
@@ -176,15 +176,25 @@ def member_section(n, member, front, objectives, contents, mc, picks, links, bin
         out += _compare_tables(mc, objectives)
     out += ["<h3>Binding constraints</h3>"]
     out += _binding_table(binding, threshold)
-    out += ["<h3>Parallel coordinates</h3>",
-            "<p class=\"note\">Drag along an axis to keep only the designs inside that range "
-            "(several axes combine; click the axis outside the range to clear); drag an "
-            "axis title to reorder. Last axis: the catalog.</p>",
-            plot_block(f"parallel-{n}", parallel_figure(
-                member, front, objectives,
-                [c for c in contents.catalogs if (front["catalog"] == c).any()]), lazy=True),
+    k = [m for m in contents.members if (contents.front["member"] == m).any()].index(member)
+    out += [f"<p><a href=\"#parallel-coordinates\" class=\"show-trace\" data-plot=\"parallel\" "
+            f"data-trace=\"{k}\" data-title=\"member {e(member)}\">Parallel coordinates of "
+            f"this member</a> (filter the front by ranges of its objectives and "
+            f"dimensions).</p>",
             "<h3>Operating point and limits</h3>", _spec_table(spec)]
     return out
+
+
+def parallel_section(contents, objectives) -> list[str]:
+    fronts = {m: contents.front[contents.front["member"] == m] for m in contents.members}
+    if not any(len(f) for f in fronts.values()):
+        return []
+    return ["<h2 id=\"parallel-coordinates\">Parallel coordinates</h2>",
+            "<p class=\"note\">One member at a time (menu at the top left). Drag along an "
+            "axis to keep only the designs inside that range (several axes combine; click the "
+            "axis outside the range to clear); drag an axis title to reorder. Colour and last "
+            "axis: the catalog.</p>",
+            plot_block("parallel", parallel_figure(fronts, objectives, contents.catalogs))]
 
 
 def _kv(rows) -> str:

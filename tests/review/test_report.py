@@ -76,13 +76,18 @@ def test_report_holds_every_member_section_and_the_cautions(written, run_copy):
         assert verdict.replace("&", "&amp;") in page
     assert " ".join(CAUTION_LINES) in page
     assert "Provenance" in page and "seed" in page and "wall time [s]" in page
-    # one front plot and one parallel-coordinates plot per member
+    # one front plot per member; one parallel-coordinates plot, one trace per member, and a
+    # link to it from each member's section
     assert len(re.findall(r'data-target="front-\d+"', page)) == len(members)
-    assert len(re.findall(r'data-target="parallel-\d+"', page)) == len(members)
+    assert len(re.findall(r'data-target="parallel"', page)) == 1
+    assert [int(k) for k in re.findall(r'data-plot="parallel" data-trace="(\d+)"', page)] == \
+        list(range(len(members)))
 
 
 def test_report_is_self_contained(written):
     _, page = written
+    ids = re.findall(r'<[a-z0-9]+[^>]* id="([^"]+)"', page.split("<body>", 1)[1])
+    assert len(ids) == len(set(ids))            # the plots are found by id
     assert external_references(page) == []
     assert "<script src" not in page
     assert len(page.encode("utf-8")) < 15e6
@@ -125,10 +130,17 @@ def test_front_figure_offers_axes_and_hover_quantities(run_copy):
     assert fig["data"][0]["text"][0].count(" / ") == 3   # the four materials
     # every button gives one x array per trace, in the shown unit
     assert all(len(b["args"][0]["x"]) == len(fig["data"]) for b in menus[0]["buttons"])
-    par = parallel_figure(member, front, ["attenuation", "mass"], catalogs)
+    fronts = {m: df[df["member"] == m] for m in dict.fromkeys(df["member"])}
+    par = parallel_figure(fronts, ["attenuation", "mass"], catalogs)
+    assert [t["name"] for t in par["data"]] == list(fronts)
+    assert [t["visible"] for t in par["data"]] == [True] + [False] * (len(fronts) - 1)
     dims = par["data"][0]["dimensions"]
     assert par["data"][0]["type"] == "parcoords"
-    assert dims[-1]["label"] == "catalog" and len(dims[0]["values"]) == len(front)
+    assert dims[-1]["label"] == "catalog" and len(dims[0]["values"]) == len(fronts[member])
+    # the menu shows one member at a time
+    buttons = par["layout"]["updatemenus"][0]["buttons"]
+    assert [b["args"][0]["visible"].count(True) for b in buttons] == [1] * len(fronts)
+    json.dumps(par, allow_nan=False)
     json.dumps(fig, allow_nan=False)
 
 

@@ -1,8 +1,7 @@
 """The report in a real browser: headless Chromium draws every plot from the file alone.
 
 Skipped where Chromium is not installed (Debian package ``chromium``; ``.ci/run`` installs
-it). The page is opened from disk with ``#all-plots`` (every plot drawn at once, not only
-those scrolled into view); Chromium's network goes through a proxy that records and refuses
+it). The page is opened from disk; Chromium's network goes through a proxy that records and refuses
 every request (:mod:`tests.review.chromium`). Speed is measured in
 ``tests/benchmarks/bench_report.py``, not here.
 """
@@ -28,7 +27,7 @@ def rendered(tiny_run, tmp_path_factory):
     shutil.copytree(tiny_run, run)
     report = write_report(run)
     source = report.path.read_text(encoding="utf-8")
-    return source, render(report.path, fragment="all-plots")
+    return source, render(report.path)
 
 
 def test_every_plot_drew(rendered):
