@@ -3,9 +3,12 @@
 The page needs no server and no network: the plotly.js bundle shipped with the ``plotly``
 Python package (:func:`plotly.offline.get_plotlyjs`) is written into a ``<script>`` element,
 each figure's JSON into a ``<script type="application/json">`` element, and one small script
-draws them with ``Plotly.newPlot``. On ``<body>`` the script sets ``data-plots-total``,
-``data-plots-drawn`` (so far), ``data-render-ms`` (milliseconds since the page started, when
-every plot is done) and, on a failure, ``data-plot-error``. Tests and the benchmark read them.
+draws them with ``Plotly.newPlot``: the scatter plots at once, the parallel-coordinates plot
+(WebGL) when they come near the visible part of the page (every plot at once when the page is
+opened as ``report.html#all-plots``). On ``<body>`` the script sets
+``data-plots-total``, ``data-plots-drawn`` (so far), ``data-first-render-ms`` (milliseconds
+since the page started, when the plots drawn at once are done), ``data-render-ms`` (when every
+plot is done) and, on a failure, ``data-plot-error``. Tests and the benchmark read them.
 
 Colours: the Okabe-Ito palette (:mod:`.figure_style`); text at 15 px on a page at most
 1200 px wide, readable on a laptop screen.
@@ -63,11 +66,16 @@ def table(headers, rows, numeric=(), row_classes=None) -> str:
     return "\n".join(out)
 
 
-def plot_block(div_id: str, figure: dict) -> str:
-    """A plot's ``<div>`` and its figure as inline JSON (``</`` escaped inside the script)."""
+def plot_block(div_id: str, figure: dict, lazy: bool = False) -> str:
+    """A plot's ``<div>`` and its figure as inline JSON (``</`` escaped inside the script).
+
+    A ``lazy`` plot is drawn when it comes near the visible part of the page (the WebGL
+    plot: it costs seconds to set up where WebGL runs in software), the others at once.
+    """
     data = json.dumps(figure, separators=(",", ":"), allow_nan=False).replace("</", "<\\/")
+    flag = " data-lazy=\"1\"" if lazy else ""
     return (f"<div class=\"plot\" id=\"{e(div_id)}\"></div>\n"
-            f"<script type=\"application/json\" class=\"plot-data\" "
+            f"<script type=\"application/json\" class=\"plot-data\"{flag} "
             f"data-target=\"{e(div_id)}\">{data}</script>")
 
 
@@ -75,30 +83,58 @@ _DRAW = """
 (function () {
   var config = %s;
   var blocks = Array.prototype.slice.call(document.querySelectorAll('script.plot-data'));
-  var body = document.body, drawn = 0;
+  var body = document.body, drawn = 0, wanted = {};
   body.setAttribute('data-plots-total', String(blocks.length));
-  var jobs = blocks.map(function (block) {
+  function done() {
+    drawn += 1;
+    body.setAttribute('data-plots-drawn', String(drawn));
+    if (drawn === blocks.length) {
+      body.setAttribute('data-render-ms', String(Math.round(performance.now())));
+    }
+  }
+  // show only trace k of a plot (a member of the parallel coordinates); remembered until the
+  // plot is drawn
+  function show(id, k, title) {
+    var plot = document.getElementById(id);
+    if (!plot || !plot.data) { wanted[id] = [k, title]; return; }
+    Plotly.update(plot, {visible: plot.data.map(function (t, j) { return j === k; })},
+                  {'updatemenus[0].active': k, 'title.text': title});
+  }
+  function draw(block) {
+    if (block.getAttribute('data-drawn')) { return Promise.resolve(); }
+    block.setAttribute('data-drawn', '1');
+    var id = block.getAttribute('data-target');
     var fig = JSON.parse(block.textContent);
-    return Plotly.newPlot(block.getAttribute('data-target'), fig.data, fig.layout, config)
-      .then(function () {
-        drawn += 1;
-        body.setAttribute('data-plots-drawn', String(drawn));
-      });
-  });
-  Promise.all(jobs).then(function () {
-    body.setAttribute('data-render-ms', String(Math.round(performance.now())));
-  }, function (err) {
-    body.setAttribute('data-plot-error', String(err));
-  });
-  // links that show one trace of a plot (a member of the parallel coordinates)
+    return Plotly.newPlot(id, fig.data, fig.layout, config).then(function () {
+      if (wanted[id]) { show(id, wanted[id][0], wanted[id][1]); delete wanted[id]; }
+      done();
+    }, function (err) {
+      body.setAttribute('data-plot-error', String(err));
+    });
+  }
   document.querySelectorAll('a.show-trace').forEach(function (link) {
     link.addEventListener('click', function () {
-      var plot = document.getElementById(link.getAttribute('data-plot'));
-      var k = Number(link.getAttribute('data-trace'));
-      if (!plot || !plot.data) { return; }
-      Plotly.update(plot, {visible: plot.data.map(function (t, j) { return j === k; })},
-                    {'updatemenus[0].active': k, 'title.text': link.getAttribute('data-title')});
+      show(link.getAttribute('data-plot'), Number(link.getAttribute('data-trace')),
+           link.getAttribute('data-title'));
     });
+  });
+  var lazy = blocks.filter(function (b) { return b.getAttribute('data-lazy'); });
+  var first = blocks.filter(function (b) { return !b.getAttribute('data-lazy'); });
+  if (!('IntersectionObserver' in window) || location.hash === '#all-plots') {
+    first = blocks; lazy = [];
+  }
+  Promise.all(first.map(draw)).then(function () {
+    body.setAttribute('data-first-render-ms', String(Math.round(performance.now())));
+    var seen = new IntersectionObserver(function (entries) {
+      entries.forEach(function (entry) {
+        if (!entry.isIntersecting) { return; }
+        seen.unobserve(entry.target);
+        draw(document.querySelector('script.plot-data[data-target="' +
+                                   entry.target.id + '"]'));
+      });
+    }, {rootMargin: '400px 0px'});
+    lazy.forEach(function (b) { seen.observe(document.getElementById(
+      b.getAttribute('data-target'))); });
   });
 })();
 """

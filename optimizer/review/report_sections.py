@@ -194,7 +194,8 @@ def parallel_section(contents, objectives) -> list[str]:
             "axis to keep only the designs inside that range (several axes combine; click the "
             "axis outside the range to clear); drag an axis title to reorder. Colour and last "
             "axis: the catalog.</p>",
-            plot_block("parallel", parallel_figure(fronts, objectives, contents.catalogs))]
+            plot_block("parallel", parallel_figure(fronts, objectives, contents.catalogs),
+                       lazy=True)]
 
 
 def _kv(rows) -> str:

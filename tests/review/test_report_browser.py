@@ -1,7 +1,8 @@
 """The report in a real browser: headless Chromium draws every plot from the file alone.
 
 Skipped where Chromium is not installed (Debian package ``chromium``; ``.ci/run`` installs
-it). The page is opened from disk; Chromium's network goes through a proxy that records and refuses
+it). The page is opened from disk as ``report.html#all-plots`` (every plot drawn at once,
+also the parallel coordinates, otherwise drawn when scrolled near); Chromium's network goes through a proxy that records and refuses
 every request (:mod:`tests.review.chromium`). Speed is measured in
 ``tests/benchmarks/bench_report.py``, not here.
 """
@@ -27,7 +28,7 @@ def rendered(tiny_run, tmp_path_factory):
     shutil.copytree(tiny_run, run)
     report = write_report(run)
     source = report.path.read_text(encoding="utf-8")
-    return source, render(report.path)
+    return source, render(report.path, fragment="all-plots")
 
 
 def test_every_plot_drew(rendered):
@@ -61,3 +62,13 @@ def test_nothing_is_fetched_from_the_network(rendered):
     scripts = re.findall(r"<script([^>]*)>", page.dom)
     assert all("src=" not in s for s in scripts)
     assert not re.search(r'<link[^>]+href="(https?:)?//', page.dom)
+
+
+def test_page_as_opened_draws_the_fronts_at_once(rendered, tmp_path):
+    source, _ = rendered
+    page = tmp_path / "report.html"
+    page.write_text(source, encoding="utf-8")
+    opened = render(page)
+    fronts = len(re.findall(r'data-target="front-\d+"', source))
+    assert "data-first-render-ms" in opened.body
+    assert int(opened.body["data-plots-drawn"]) >= fronts
