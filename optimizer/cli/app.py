@@ -19,7 +19,9 @@ from typer.core import TyperGroup
 
 from cablefam.optimizer.cli import review_commands, sweep_commands
 from cablefam.optimizer.cli.catalog_commands import catalog_app
+from cablefam.optimizer.cli.init_command import init_command
 from cablefam.optimizer.cli.inspect_command import inspect_command
+from cablefam.optimizer.cli.report_command import report_command
 from cablefam.optimizer.errors import InputError
 
 
@@ -73,6 +75,8 @@ app.command("pick")(review_commands.pick_command)
 app.command("compare")(review_commands.compare_command)
 app.command("plot")(review_commands.plot_command)
 app.command("runs")(review_commands.runs_command)
+app.command("report")(report_command)
+app.command("init")(init_command)
 
 
 def main(argv=None) -> None:

@@ -6,6 +6,8 @@ Naming rule for what a command writes
   folder is created when missing). ``sweep --out DIR`` (run folders), ``plot --out DIR`` (plot
   files), ``pick --out DIR`` (design sheets), ``compare --out DIR`` (overlay plots).
 - One file is named by what it holds and takes a ``FILE``: ``inspect --profile FILE``.
+  ``report --out FILE`` is the one ``--out`` that names a file: the report is one page
+  (default ``RUN/report.html``).
 - What a command prints goes to stdout (``design`` prints a design file: redirect it);
   progress and notes go to stderr.
 - Older names stay as aliases (the CLI is a contract): ``pick --sheet DIR`` and

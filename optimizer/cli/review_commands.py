@@ -70,6 +70,10 @@ def pick_command(
         "--nearest", metavar="T", help="Target per objective in the columns' units, e.g. "
         "attenuation=5,mass=200; implies --method nearest.")] = None,
     top: Annotated[int, typer.Option("--top", metavar="N", help="Designs per member.")] = 5,
+    diverse: Annotated[bool, typer.Option(
+        "--diverse/--neighbours", help="Spread the picks along the front (default), or take "
+        "the best-ranked designs that differ by more than one resolution step (--neighbours, "
+        "the older behaviour).")] = True,
     json_out: Annotated[bool, json_option()] = False,
     out: Annotated[Optional[Path], out_dir_option(
         "Write a design sheet (Markdown, HTML, PNG) per pick into this folder (older name: "
@@ -81,7 +85,7 @@ def pick_command(
     chosen = pick_method(method, knee, weights, nearest)
     with flags_for(**PICK_FLAGS):
         result = pick(run, member=member, catalog=catalog, where=where, method=chosen,
-                      weights=weights, target=nearest, top=top)
+                      weights=weights, target=nearest, top=top, diverse=diverse)
     if json_out:
         echo_json(picks_to_json(result))
     else:

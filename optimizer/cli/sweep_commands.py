@@ -136,6 +136,8 @@ def _report_run(run_dir: Path, first_member: str) -> None:
     typer.echo(f"results: {run_dir / 'front.parquet'} (Pareto sets), {run_dir / 'run.json'} "
                "(provenance and timings)", err=True)
     typer.echo("next:\n"
+               f"  cablefam report {run_dir}                     # one page: fronts, picks, "
+               f"verdicts ({run_dir / 'report.html'})\n"
                f"  cablefam pick {run_dir} --top 3 --out {run_dir}/sheets   # candidates, "
                "design sheets\n"
                f"  cablefam compare {run_dir}                    # which catalog wins where\n"

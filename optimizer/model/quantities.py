@@ -149,3 +149,39 @@ def display(key: str) -> tuple[float, str]:
     its key, unscaled."""
     q = QUANTITIES.get(key)
     return (1.0, key) if q is None else q.display()
+
+
+# --- member keys (a sweep file's [[member]] table): labels for design sheets and the report
+#: Keys of a family member's specification -> label and unit, as a person reads them. The
+#: key is the sweep-file key (unit in its name); read by the design sheets and the run report.
+MEMBER_KEYS = {q.key: q for q in (
+    Quantity("name", "member", "-"),
+    Quantity("impedance_ohm", "nominal impedance", "ohm"),
+    Quantity("impedance_tolerance_ohm", "impedance tolerance (+/-)", "ohm"),
+    Quantity("frequency_hz", "highest operating frequency", "Hz"),
+    Quantity("power_w", "CW power delivered", "W"),
+    Quantity("peak_voltage_v", "peak voltage", "V"),
+    Quantity("ambient_c", "ambient temperature", "degC"),
+    Quantity("max_outer_diameter_m", "max outer diameter", "m"),
+    Quantity("field_safety_factor", "field safety factor (strength / peak field)", "-"),
+    Quantity("single_mode_margin", "single-mode margin (TE11 cutoff / frequency)", "-"),
+    Quantity("min_shield_skin_depths", "min shield wall thickness", "skin depths"),
+    Quantity("min_impedance_yield", "min impedance yield", "-"),
+    Quantity("vswr", "voltage standing-wave ratio", "-"),
+    Quantity("solar_irradiance_w_per_m2", "solar irradiance", "W/m^2"),
+    Quantity("min_velocity_factor", "min velocity factor", "-"),
+    Quantity("max_capacitance_f_per_m", "max capacitance", "F/m"),
+    Quantity("screening_band_hz", "screening band", "Hz"),
+    Quantity("max_transfer_impedance_ohm_per_m", "max transfer impedance over the band",
+             "ohm/m"),
+    Quantity("min_braid_optical_coverage", "min braid optical coverage", "-"),
+)}
+
+
+def member_label(key: str) -> str:
+    """``label [unit]`` of a member key (``ambient temperature [degC]``); the key itself when
+    the table does not know it (a key added to the sweep format later)."""
+    q = MEMBER_KEYS.get(key)
+    if q is None:
+        return key
+    return q.label if q.unit == "-" else q.with_unit

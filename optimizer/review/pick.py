@@ -62,6 +62,8 @@ class PickResult:
     """member -> number of non-dominated designs ranked."""
     weights: dict[str, float] | None = None
     target: dict[str, float] | None = None
+    diverse: bool = True
+    """Picks spread along the front (False: the best-ranked distinct designs)."""
 
 
 def _objective_name(key: str, objectives, option: str) -> str:
@@ -138,7 +140,7 @@ def _rank(f: np.ndarray, method: str, weights, target) -> tuple[np.ndarray, np.n
 
 def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
          where: str | None = None, method: str = "knee", weights=None, target=None,
-         top: int = 5) -> PickResult:
+         top: int = 5, diverse: bool = True) -> PickResult:
     """Rank the non-dominated designs of each member (or of ``member``) and keep the ``top``.
 
     Parameters
@@ -159,6 +161,11 @@ def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
         Designs kept per member, >= 1. Two picks always differ by more than one resolution
         step (the run's, see :data:`cablefam.optimizer.model.objectives.RESOLUTIONS`) in at
         least one objective: a design next to a better-ranked one is passed over.
+    diverse : bool
+        Spread the picks along the front (default): after the best-ranked design, each next
+        pick is the best-ranked one at least ``1/top`` of the front's normalized range from
+        every earlier pick (:func:`cablefam.optimizer.review.tradeoff.spread_first`). False:
+        the best-ranked designs that are merely distinct, often neighbours of the first.
     """
     if method not in METHODS:
         raise InputError(f"method = {method!r}: use one of {', '.join(METHODS)}")
@@ -217,7 +224,10 @@ def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
         candidates[name] = len(sub)
         score, order = _rank(f, method, w_vec, t_vec)
         pw = tradeoff.pseudo_weights(f)
-        chosen = tradeoff.distinct_first(f, order, resolution, top)
+        if diverse:
+            chosen = tradeoff.spread_first(f, order, resolution, top)
+        else:
+            chosen = tradeoff.distinct_first(f, order, resolution, top)
         out = sub.iloc[chosen].copy()
         out.insert(0, "rank", np.arange(1, len(chosen) + 1))
         out.insert(3, INDEX_COLUMN, position.loc[out.index].to_numpy())
@@ -228,7 +238,8 @@ def pick(run_dir, *, member: str | None = None, catalog: str | None = None,
     picks = (pd.concat(picked, ignore_index=True) if picked
              else pd.DataFrame(columns=["rank", "member", "catalog", INDEX_COLUMN, "score"]))
     return PickResult(run_dir=Path(run_dir), objectives=objectives, method=method,
-                      picks=picks, candidates=candidates, weights=w_map, target=t_map)
+                      picks=picks, candidates=candidates, weights=w_map, target=t_map,
+                      diverse=diverse)
 
 
 # ------------------------------------------------------------------------------------ output
@@ -274,6 +285,7 @@ def picks_to_json(result: PickResult) -> dict:
         "weights": result.weights,
         "target": result.target,
         "candidates": result.candidates,
+        "diverse": result.diverse,
         "picks": picks,
     }
 
@@ -288,7 +300,10 @@ def format_picks(result: PickResult) -> str:
                + [shown[c][1] for c in obj_cols]
                + (["yield", "Z0 3-sigma [ohm]"] if with_yield else []) + ["score"])
     lines = [f"cablefam pick: {result.run_dir}, method {result.method} "
-             f"({SCORE_MEANING[result.method]})"]
+             f"({SCORE_MEANING[result.method]})",
+             "picks spread along the front (--neighbours: the best-ranked distinct designs)"
+             if result.diverse else "the best-ranked distinct designs (--diverse: spread "
+             "along the front)"]
     if result.weights:
         lines.append("weights: " + ", ".join(f"{k}={v:g}" for k, v in result.weights.items()))
     if result.target:

@@ -11,7 +11,6 @@ PNG files next to it (relative links): no external script or style sheet.
 from __future__ import annotations
 
 import dataclasses
-import html
 import math
 import tomllib
 from pathlib import Path
@@ -26,12 +25,15 @@ from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.inputs.design_file import Design, design_arrays, parse_design
 from cablefam.optimizer.model.evaluate import Designs, evaluate
 from cablefam.optimizer.model.objectives import OBJECTIVES
-from cablefam.optimizer.model.quantities import QUANTITIES
+from cablefam.optimizer.model.quantities import MEMBER_KEYS, QUANTITIES
 from cablefam.optimizer.model.slots import SLOTS
 from cablefam.optimizer.review.design_export import front_row_design_toml
 from cablefam.optimizer.review.figure_style import safe_name, save_figure
 from cablefam.optimizer.review.inspection import (REPORT_LAYOUT, Inspection, engineering,
                                                   inspect_loaded, profile_table)
+from cablefam.optimizer.review.sheet_document import (Code, Heading, Image, Link,  # noqa: F401
+                                                     Paragraph, Table, render_html,
+                                                     render_markdown)
 from cablefam.optimizer.review.sheet_figures import (cross_section_figure, frequency_figure,
                                                      front_position_figure, profile_figure)
 from cablefam.optimizer.review.sheet_screening import screening_sheet_figures, spec_of
@@ -44,91 +46,6 @@ FREQUENCY_SPAN_BELOW = 100.0
 FREQUENCY_SPAN_ABOVE = 10.0
 #: Relative difference above which a re-evaluated quantity is flagged against the run's value.
 REEVALUATION_RTOL = 1e-6
-
-
-# ------------------------------------------------------------------------- document blocks
-
-@dataclasses.dataclass(frozen=True)
-class Heading:
-    level: int
-    text: str
-
-
-@dataclasses.dataclass(frozen=True)
-class Paragraph:
-    text: str
-
-
-@dataclasses.dataclass(frozen=True)
-class Table:
-    headers: tuple[str, ...]
-    rows: tuple[tuple[str, ...], ...]
-
-
-@dataclasses.dataclass(frozen=True)
-class Image:
-    path: str
-    """Relative to the page."""
-    alt: str
-
-
-@dataclasses.dataclass(frozen=True)
-class Code:
-    text: str
-
-
-def _md_cell(text: str) -> str:
-    return str(text).replace("|", "\\|").replace("\n", " ")
-
-
-def render_markdown(blocks) -> str:
-    out = []
-    for b in blocks:
-        if isinstance(b, Heading):
-            out.append("#" * b.level + " " + b.text)
-        elif isinstance(b, Paragraph):
-            out.append(b.text)
-        elif isinstance(b, Table):
-            out.append("| " + " | ".join(_md_cell(h) for h in b.headers) + " |")
-            out.append("|" + "|".join(" --- " for _ in b.headers) + "|")
-            out += ["| " + " | ".join(_md_cell(c) for c in row) + " |" for row in b.rows]
-        elif isinstance(b, Image):
-            out.append(f"![{b.alt}]({b.path})")
-        elif isinstance(b, Code):
-            out.append("```\n" + b.text.rstrip("\n") + "\n```")
-        out.append("")
-    return "\n".join(out)
-
-
-_STYLE = ("body{font-family:sans-serif;max-width:60em;margin:2em auto;padding:0 1em;"
-          "color:#222}table{border-collapse:collapse;margin:0.5em 0}"
-          "td,th{border:1px solid #bbb;padding:0.2em 0.6em;text-align:left;vertical-align:top}"
-          "th{background:#eee}img{max-width:100%}pre{background:#f4f4f4;padding:0.6em;"
-          "overflow-x:auto}.caution{border:2px solid #D55E00;padding:0.6em}")
-
-
-def render_html(blocks, title: str) -> str:
-    e = html.escape
-    out = ["<!DOCTYPE html>", "<html lang=\"en\">", "<head>", "<meta charset=\"utf-8\">",
-           f"<title>{e(title)}</title>", f"<style>{_STYLE}</style>", "</head>", "<body>"]
-    for b in blocks:
-        if isinstance(b, Heading):
-            out.append(f"<h{b.level}>{e(b.text)}</h{b.level}>")
-        elif isinstance(b, Paragraph):
-            cls = " class=\"caution\"" if b.text.startswith("CAUTION") else ""
-            out.append(f"<p{cls}>{e(b.text)}</p>")
-        elif isinstance(b, Table):
-            out.append("<table>")
-            out.append("<tr>" + "".join(f"<th>{e(h)}</th>" for h in b.headers) + "</tr>")
-            out += ["<tr>" + "".join(f"<td>{e(str(c))}</td>" for c in row) + "</tr>"
-                    for row in b.rows]
-            out.append("</table>")
-        elif isinstance(b, Image):
-            out.append(f"<p><img src=\"{e(b.path)}\" alt=\"{e(b.alt)}\"></p>")
-        elif isinstance(b, Code):
-            out.append(f"<pre>{e(b.text)}</pre>")
-    out += ["</body>", "</html>", ""]
-    return "\n".join(out)
 
 
 # --------------------------------------------------------------------------------- physics
@@ -205,6 +122,39 @@ def _quantity_rows(values: dict[str, float]) -> list[Table | Heading]:
     return blocks
 
 
+def sheet_stem(member: str, catalog: str, index: int) -> str:
+    """File name stem of a design's sheet (``.md``, ``.html`` and its PNGs)."""
+    return safe_name(f"{member}-{catalog}-{int(index)}")
+
+
+def member_rows(spec: dict) -> list[tuple[str, str, str]]:
+    """The member's operating point and limits as (label, value with unit, sweep-file key)
+    (labels from :data:`cablefam.optimizer.model.quantities.MEMBER_KEYS`); the report's
+    table too."""
+    rows = []
+    known = list(MEMBER_KEYS)
+    ordered = sorted(spec, key=lambda k: known.index(k) if k in known else len(known))
+    for key in ordered:  # the table's order (provenance JSON keeps them sorted by name)
+        value = spec[key]
+        q = MEMBER_KEYS.get(key)
+        if key == "name" or q is None:
+            text = _fmt(value)
+        elif value is None:
+            text = "not set"
+        elif isinstance(value, (int, float)) and q.unit != "-":
+            text = engineering(float(value), q.unit)
+        else:
+            text = _fmt(float(value) if isinstance(value, int) else value)
+        rows.append((q.label if q is not None else key, text, key))
+    return rows
+
+
+def _relative_href(target: Path, start: Path) -> str:
+    import os
+
+    return Path(os.path.relpath(Path(target).resolve(), Path(start).resolve())).as_posix()
+
+
 def _material_rows(design: Design, ids: dict[str, str]) -> Table:
     rows = []
     for table, slot in SLOTS.items():
@@ -232,9 +182,16 @@ def _reevaluation_notes(values: dict[str, float], row: pd.Series) -> list[str]:
 
 
 def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance: dict,
-                 out_dir, *, method: str, score_meaning: str) -> list[Path]:
-    """Write the sheet of one picked front row (Markdown, HTML, PNGs); return the paths."""
+                 out_dir, *, method: str, score_meaning: str,
+                 report_href: str | None = None) -> list[Path]:
+    """Write the sheet of one picked front row (Markdown, HTML, PNGs); return the paths.
+
+    The sheet links back to the run's report, ``report_href`` (relative to the sheet; default
+    ``RUN/report.html`` as seen from ``out_dir``, where ``cablefam report RUN`` writes it).
+    """
     run_dir, out_dir = Path(run_dir), Path(out_dir)
+    if report_href is None:
+        report_href = _relative_href(run_dir / "report.html", out_dir)
     member, catalog, index = str(row["member"]), str(row["catalog"]), int(row["index"])
     objectives = list(provenance["objectives"])
     toml_text = front_row_design_toml(run_dir, member, index)
@@ -247,7 +204,7 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
     c = b + shield_build_m(g)
     d = c + g.jacket_thickness_m
     offset = float(getattr(g, "eccentricity_m", 0.0) or 0.0)
-    stem = safe_name(f"{member}-{catalog}-{index}")
+    stem = sheet_stem(member, catalog, index)
     ids = {t: row.get(t) for t in SLOTS}
     names = {t: f"{ids[t]}" for t in ids if ids[t]}
 
@@ -295,8 +252,10 @@ def design_sheet(run_dir, row: pd.Series, member_front: pd.DataFrame, provenance
         Paragraph("Export this design as a design file:"),
         Code(f"cablefam design {run_dir} --member {member} --index {index} > {stem}.toml\n"
              f"cablefam inspect {stem}.toml"),
+        Link(report_href, "Run report", f" (all members, fronts, picks; made by `cablefam "
+             f"report {run_dir}`)"),
         Heading(2, "Member specification (operating point and limits)"),
-        Table(("key", "value"), tuple((k, _fmt(v)) for k, v in spec.items())),
+        Table(("quantity", "value", "key"), tuple(member_rows(spec))),
         Heading(2, "Geometry"),
         Table(("dimension", "value"), (
             ("centre-conductor radius a", engineering(a, "m")),

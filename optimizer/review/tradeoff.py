@@ -221,3 +221,53 @@ def distinct_first(f, order, resolution, n: int) -> np.ndarray:
         taken.append(i)
         excluded |= np.all(np.abs(f - f[i]) <= resolution, axis=1)
     return np.asarray(taken, dtype=int)
+
+
+#: Spread of :func:`spread_first`: ``n`` picks start at least ``SPREAD / n`` apart in
+#: range-normalized objective space, where the front spans 0..1 in every objective (a
+#: two-objective front is 1 to 1.4 long there, so ``n`` picks fit along it).
+SPREAD = 1.0
+#: Halvings of the distance before :func:`spread_first` falls back to
+#: :func:`distinct_first` (a front too short for ``n`` picks at the starting distance).
+SPREAD_HALVINGS = 6
+
+
+def spread_first(f, order, resolution, n: int, spread: float = SPREAD) -> np.ndarray:
+    """Up to ``n`` rows spread along the front, taken in ranking order.
+
+    Greedy, in the order of ``order`` (best first): a row is taken when it lies at least
+    ``spread / n`` from every row taken before (Euclidean distance in objective space
+    normalized to the front's range, :func:`normalize`) and differs from each by more than one
+    resolution step in at least one objective (as :func:`distinct_first`). When fewer than
+    ``n`` rows qualify, the distance is halved and the pass repeated (up to
+    :data:`SPREAD_HALVINGS` times), then dropped. The best-ranked row is always the first.
+    """
+    f = _as_matrix(f)
+    order = np.asarray(order, dtype=int)
+    if len(f) == 0 or n < 1:
+        return np.zeros(0, dtype=int)
+    z = normalize(f, *front_range(f))
+    resolution = np.asarray(resolution, dtype=float)
+    taken: list[int] = []
+    radii = [spread / n / 2.0 ** h for h in range(SPREAD_HALVINGS + 1)] + [0.0]
+    for radius in radii:
+        excluded = np.zeros(len(f), dtype=bool)
+        for t in taken:
+            excluded |= _near(z, f, t, radius, resolution)
+        for i in order:
+            if len(taken) == n:
+                break
+            if excluded[i]:
+                continue
+            taken.append(int(i))
+            excluded |= _near(z, f, i, radius, resolution)
+        if len(taken) == n:
+            break
+    return np.asarray(taken, dtype=int)
+
+
+def _near(z, f, i, radius, resolution) -> np.ndarray:
+    """Rows within ``radius`` of row ``i`` (normalized) or within one resolution step of it in
+    every objective."""
+    close = np.sqrt(np.sum((z - z[i]) ** 2, axis=1)) < radius
+    return close | np.all(np.abs(f - f[i]) <= resolution, axis=1)

@@ -11,7 +11,8 @@ import pytest
 
 #: Modules behind runs, pick, compare, plot, design and inspect.
 REVIEW_MODULES = [f"cablefam.optimizer.review.{m}" for m in (
-    "pick", "compare", "plots", "sheet", "design_export", "inspection")] + [
+    "pick", "compare", "plots", "sheet", "design_export", "inspection", "report",
+    "report_figures", "report_page", "report_sections", "sheet_document")] + [
     f"cablefam.optimizer.run_folder.{m}" for m in ("reader", "index")]
 HEAVY = ("pymoo", "dask")
 
@@ -44,13 +45,14 @@ def _run_cli(*argv) -> str:
             "    assert not exc.code, exc.code\n")
 
 
-@pytest.mark.parametrize("command", ["runs", "pick", "compare", "design"])
+@pytest.mark.parametrize("command", ["runs", "pick", "compare", "design", "report"])
 def test_review_commands_run_without_pymoo_or_dask(tiny_run, tmp_path, command):
     argv = {
         "runs": ["runs", tiny_run.parent],
         "pick": ["pick", tiny_run, "--top", "1", "--sheet", tmp_path / "sheets"],
         "compare": ["compare", tiny_run, "--json"],
         "design": ["design", tiny_run, "--member", "mast-feeder-50", "--index", "0"],
+        "report": ["report", tiny_run, "--out", tmp_path / "report.html", "--no-sheets"],
     }[command]
     body = "import contextlib, io\nwith contextlib.redirect_stdout(io.StringIO()):\n" + "".join(
         "    " + line + "\n" for line in _run_cli(*argv).splitlines())
