@@ -35,7 +35,7 @@ def dense_points(layout, lower, upper, n_points: int, seed: int) -> np.ndarray:
 
     Parameters
     ----------
-    layout : cablefam.optimizer.search.problem.Layout
+    layout : cablefam.optimizer.search.layout.Layout
         Which columns are continuous and which are material choices.
     lower, upper : ndarray
         Bounds of the decision vector (integer columns on [-0.5, k - 0.5]).
