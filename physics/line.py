@@ -213,7 +213,7 @@ def conductor_impedances(a, b, c, frequency, inner_resistivity, shield_resistivi
     # --- end of the clad centre conductor ---
     # --- outer conductors other than the tube (braid, foil; issue 12) ---
     tube = True if outer is None else np.asarray(outer.construction) == 0
-    if np.any(tube):
+    if np.any(tube) or np.all(tube):  # np.all: an empty population takes the tube path
         r_s, x_s = tube_resistance_reactance(b, c, shield_resistivity, frequency,
                                              shield_relative_permeability, method=method)
     if not np.all(tube):

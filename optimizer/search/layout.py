@@ -113,7 +113,7 @@ def make_layout(sweep: Sweep, catalog_name: str) -> Layout:
     free_materials = tuple(t for t in SLOT_NAMES if len(ids.get(t, ())) > 1)
     # outer conductors (issue 12): their bounds, free variables and construction choice
     bounds, free_geometry, ids, free_materials = outer_variables.extend_layout(
-        s, bounds, free_geometry, ids, free_materials)
+        s, bounds, free_geometry, ids, free_materials, sweep.spec.member)
     sizes = None
     if s.inner_diameter_series is not None:
         radii = 0.5 * standard_diameters(s.inner_diameter_series)

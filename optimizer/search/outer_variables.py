@@ -19,9 +19,19 @@ from cablefam.physics import outer_conductor as oc
 CONSTRUCTION = "shield_construction"
 
 
-def extend_layout(search, bounds, free_geometry, ids, free_materials):
-    """The layout's bounds, free variables, choices and free choices with the outer ones."""
-    if search.shield_constructions is None:
+def extend_layout(search, bounds, free_geometry, ids, free_materials, members=()):
+    """The layout's bounds, free variables, choices and free choices with the outer ones.
+
+    A sweep without constructions whose members set a screening limit or band searches tubes
+    with their transfer impedance computed (``shield_constructions = ["tube"]``), so that the
+    limit is checked rather than passed over.
+    """
+    kinds = search.shield_constructions
+    if kinds is None and any(getattr(m, "max_transfer_impedance_ohm_per_m", None) is not None
+                             or getattr(m, "screening_band_hz", None) is not None
+                             for m in members):
+        kinds = ["tube"]
+    if kinds is None:
         return bounds, free_geometry, ids, free_materials
     bounds = dict(bounds)
     for key in OUTER_KEYS:
@@ -30,8 +40,8 @@ def extend_layout(search, bounds, free_geometry, ids, free_materials):
             bounds[key] = tuple(float(v) for v in value)
     free_geometry = free_geometry + tuple(k for k in OUTER_KEYS
                                           if k in bounds and bounds[k][1] > bounds[k][0])
-    ids = {**ids, CONSTRUCTION: tuple(search.shield_constructions)}
-    if len(search.shield_constructions) > 1:
+    ids = {**ids, CONSTRUCTION: tuple(kinds)}
+    if len(kinds) > 1:
         free_materials = free_materials + (CONSTRUCTION,)
     return bounds, free_geometry, ids, free_materials
 

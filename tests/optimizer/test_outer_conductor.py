@@ -238,3 +238,20 @@ def test_heat_of_a_braid_matches_its_attenuation(tmp_path, construction):
     v = _values(_write(tmp_path, text))
     alpha_np = v["attenuation_db_per_100m"][0] / 100.0 / (20.0 / math.log(10.0))
     assert v["heat_w_per_m"][0] == pytest.approx(2.0 * alpha_np * 20.0, rel=0.03)
+
+
+def test_tube_only_sweep_checks_a_transfer_impedance_limit(tmp_path):
+    """No `shield_constructions`, but a member's screening limit: the tubes get their
+    transfer impedance computed and the limit binds (it is not passed over)."""
+    text = "\n".join(line for line in SWEEP.format(constructions="", limit=1e-3).splitlines()
+                     if not line.startswith(("shield_constructions", "braid_")))
+    path = _write(tmp_path, text, "tubes.toml")
+    run_dir = run_sweep(load_sweep(path), tmp_path / "runs")
+    df = pq.read_table(run_dir / "front.parquet").to_pandas()
+    assert len(df) > 0 and set(df["shield_construction"]) == {0.0}
+    # Source: Schelkunoff's tube, Z_T(f -> 0) = R_dc: the largest |Z_T| of a tube over a band
+    # is at its lowest frequency, at most its DC resistance
+    assert (df["transfer_impedance_max_ohm_per_m"]
+            <= df["dc_resistance_shield_ohm_per_m"] * (1 + 1e-9)).all()
+    assert (df["transfer_impedance_max_ohm_per_m"] <= 1e-3).all()
+    assert (df["margin_transfer_impedance"] >= 0.0).all()

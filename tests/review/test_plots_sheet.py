@@ -87,7 +87,10 @@ def test_design_sheet_contents(tiny_run, tmp_path):
     # materials with their sources, the four plots next to the pages, no external resources
     assert "IEC 60889" in text or "IEC 60028" in text
     images = re.findall(r'<img src="([^"]+)"', html)
-    assert len(images) == 4
+    # section, profiles, frequency, front; and the transfer impedance of a braid or foil
+    screening = any(name.endswith("-screening.png") for name in images)
+    assert len(images) == 4 + screening
+    assert screening == ("shield_construction" in result.picks.columns)
     for name in images:
         assert "/" not in name and png_size(page.parent / name) == EXPECTED_PX
     assert "<script" not in html and "http" not in html and "<link" not in html
