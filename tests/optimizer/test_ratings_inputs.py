@@ -63,6 +63,7 @@ def test_bad_values_are_one_line_errors_with_exit_2(cli, tmp_path, edit, needles
 
 def test_sweep_member_vswr_below_one(tmp_path):
     text = demo_sweep_path().read_text()
+    text = "\n".join(line for line in text.splitlines() if not line.startswith("vswr"))
     text = text.replace("[[member]]", "[[member]]\nvswr = 0.5", 1)
     catalogs = demo_sweep_path().parent
     path = tmp_path / "sweep.toml"
