@@ -162,8 +162,8 @@ def _material_rows(design: Design, ids: dict[str, str]) -> Table:
         if record is None:
             continue
         data = record.model_dump(exclude_none=True)
-        props = ", ".join(f"{k} = {v:.6g}" for k, v in data.items()
-                          if isinstance(v, (int, float)))
+        props = ", ".join(f"{k} = {str(v).lower() if isinstance(v, bool) else f'{v:.6g}'}"
+                          for k, v in data.items() if isinstance(v, (int, float)))
         rows.append((slot.label, ids.get(table) or "-", data.get("name", "-"), props,
                      data.get("source", "not given")))
     return Table(("layer", "id", "material", "properties (SI, units in names)", "source"),

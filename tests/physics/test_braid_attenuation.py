@@ -7,6 +7,11 @@ values were computed with a cable maker's on-line calculator). Everything else b
 out. The second table is Appendix H, "Nominal attenuation in dB per 100 metres", of the Codan
 "Radio Repeater Systems Training Guide" (values at 50, 150, 450 and 850 MHz).
 
+Both tables are weak sources: the first was computed with a cable maker's calculator, the
+second is a radio maker's training document, not a standard. They stand in until a published
+standard's table (a MIL-DTL-17 specification sheet, or a handbook table of the RG types) is at
+hand; replace them then. The 850 MHz values are outside +-10 % (pinned separately below).
+
 Constructions (nominal MIL-C-17 dimensions, from memory; braid carriers, ends and wire
 diameter from memory; the braid angle is solved from the optical coverage of the table
 "Coaxial Cable Specifications, major types", compiled by P. Harden, NA5N). Copper-covered-steel
