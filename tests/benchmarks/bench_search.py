@@ -68,12 +68,14 @@ def main(argv=None):
     ap.add_argument("--seeds", type=int, default=5)
     ap.add_argument("--reference-factor", type=int, default=20)
     ap.add_argument("--member", default=None)
+    ap.add_argument("--sweep", default=None,
+                    help="a sweep file instead of the bundled demo (e.g. with braid and foam)")
     ap.add_argument("--generations", type=int, default=None,
                     help="genetic generations instead of the sweep file's")
     ap.add_argument("--evaluations", type=int, default=None,
                     help="evaluations per task instead of the sweep file's")
     args = ap.parse_args(argv)
-    sweep = load_sweep(demo_sweep_path())
+    sweep = load_sweep(args.sweep or demo_sweep_path())
     s = sweep.spec.search
     generations = args.generations or s.generations
     if args.evaluations:
