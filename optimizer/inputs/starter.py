@@ -57,7 +57,9 @@ jacket_thickness_m = [0.5e-3, 1.5e-3]    # jacket; [0, 0] leaves the jacket out
 # void_fraction = [0.0, 0.7]              # optional: foam the dielectrics marked foamable
 #                                        # (void share 0 <= v < 1, a continuous variable)
 # Optional outer conductors as built (default: every shield a solid tube). With any braid or
-# foil construction, give the bounds of its variables (integers for carriers and ends):
+# foil construction, give the bounds of its variables (integers for carriers and ends), and
+# raise evaluations_per_task to about 100000 per free variable (README, "Budget for richer
+# search spaces"):
 # shield_constructions = ["tube", "braid", "foil-braid"]
 # braid_wire_diameter_m = [0.1e-3, 0.2e-3]   # diameter of one braid wire
 # braid_angle_deg = [20, 40]                 # angle between a braid wire and the cable axis
