@@ -40,7 +40,8 @@ from cablefam.optimizer.inputs.catalog import Catalog, load_catalog
 from cablefam.optimizer.inputs.cladding import check_layer_fits, layer_numbers
 from cablefam.optimizer.inputs.materials import (DESIGN_RECORDS, ConductorMaterial,
                                                  DielectricMaterial, JacketMaterial, Positive,
-                                                 Record, Temperature, read_toml, rule_error,
+                                                 Record, ScreeningBand, Temperature,
+                                                 check_band_order, read_toml, rule_error,
                                                  validate_record, validation_problems)
 from cablefam.optimizer.model.slots import MATERIAL_SLOTS
 from cablefam.physics.stranding import strand_layup
@@ -103,15 +104,12 @@ class Operating(Record):
     # ratings on the safe side: standing wave (power_w is the delivered power) and sun
     vswr: Annotated[float, Field(ge=1.0, le=1e3)] = 1.0
     solar_irradiance_w_per_m2: Annotated[float, Field(ge=0, le=1500.0)] = 0.0
-    screening_band_hz: Annotated[list[Annotated[float, Field(gt=0, le=1e12)]],
-                                 Field(min_length=2, max_length=2)] | None = None
+    screening_band_hz: ScreeningBand | None = None
     """[low, high] over which the largest transfer impedance is reported (issue 12)."""
 
     @model_validator(mode="after")
     def _band_order(self):
-        band = self.screening_band_hz
-        if band is not None and not band[0] <= band[1]:
-            raise rule_error("screening_band_hz", band, "low must not exceed high")
+        check_band_order(self.screening_band_hz)
         return self
 
 

@@ -33,6 +33,9 @@ Price = Annotated[float, Field(ge=0)]
 Emissivity = Annotated[float, Field(gt=0, le=1)]
 #: Absorption coefficient of a surface for solar radiation.
 Absorption = Annotated[float, Field(ge=0, le=1)]
+#: [low, high] of a screening band [Hz] (design files' [operating] and sweep members).
+ScreeningBand = Annotated[list[Annotated[float, Field(gt=0, le=1e12)]],
+                          Field(min_length=2, max_length=2)]
 #: Error type of :func:`rule_error`.
 RULE_ERROR = "rule"
 #: pydantic error types of a value that should have been a table.
@@ -204,6 +207,12 @@ def rule_error(key: str, value, reason: str) -> PydanticCustomError:
     below the model that checks it) and the value, as every other problem line does."""
     return PydanticCustomError(RULE_ERROR, "{reason}", {"key": key, "value": value,
                                                           "reason": reason})
+
+
+def check_band_order(band):
+    """A model validator's check of a :data:`ScreeningBand`: low <= high."""
+    if band is not None and not band[0] <= band[1]:
+        raise rule_error("screening_band_hz", band, "low must not exceed high")
 
 
 def _unwrap(tp):

@@ -18,7 +18,8 @@ from pydantic import Field, ValidationError, create_model, field_validator, mode
 
 from cablefam.optimizer.errors import InputError
 from cablefam.optimizer.inputs.catalog import Catalog, catalog_from_text, load_catalog
-from cablefam.optimizer.inputs.materials import (Positive, Record, Temperature, read_toml,
+from cablefam.optimizer.inputs.materials import (Positive, Record, ScreeningBand, Temperature,
+                                                 check_band_order, read_toml,
                                                  rule_error, validation_problems)
 from cablefam.optimizer.model.objectives import OBJECTIVES
 from cablefam.optimizer.model.slots import MATERIAL_SLOTS
@@ -225,17 +226,14 @@ class MemberSpec(Record):
     vswr: Annotated[float, Field(ge=1.0, le=1e3)] = 1.0
     solar_irradiance_w_per_m2: Annotated[float, Field(ge=0, le=1500.0)] = 0.0
     # --- screening (issue 12) ---
-    screening_band_hz: Annotated[list[Annotated[float, Field(gt=0, le=1e12)]],
-                                 Field(min_length=2, max_length=2)] | None = None
+    screening_band_hz: ScreeningBand | None = None
     """[low, high] of the band of the transfer-impedance limit (default: the frequency)."""
     max_transfer_impedance_ohm_per_m: Positive | None = None
     min_braid_optical_coverage: Annotated[float, Field(gt=0.0, le=1.0)] | None = None
 
     @model_validator(mode="after")
     def _band_order(self):
-        band = self.screening_band_hz
-        if band is not None and not band[0] <= band[1]:
-            raise rule_error("screening_band_hz", band, "low must not exceed high")
+        check_band_order(self.screening_band_hz)
         return self
     # --- end of the screening keys ---
 
