@@ -43,13 +43,15 @@ CONSTRUCTIONS = {
 
 # (construction, frequency [Hz], published [dB/100 m], table, used for calibration)
 # Source: ARRL General Class License Manual, Table 6-1 (corrected, arrl.org), dB/100 ft * 3.2808
+# (values computed there with a cable maker's calculator: a weak source, see the docstring)
 ARRL = [
     ("RG-213/U", 150e6, 2.53 * FT_PER_M, "ARRL", True),
     ("RG-58C/U", 150e6, 5.63 * FT_PER_M, "ARRL", False),
     ("RG-59B/U", 150e6, 4.11 * FT_PER_M, "ARRL", False),
     ("RG-174/U", 150e6, 10.3 * FT_PER_M, "ARRL", False),
 ]
-# Source: Codan, Radio Repeater Systems Training Guide, Appendix H (dB per 100 m, nominal)
+# Weak source, not a standard (a radio maker's training document; see the module docstring):
+# Codan, Radio Repeater Systems Training Guide, Appendix H (dB per 100 m, nominal)
 CODAN = [
     ("RG-58C/U", 50e6, 10.8, "Codan", False),
     ("RG-58C/U", 150e6, 20.0, "Codan", False),
