@@ -160,10 +160,21 @@ def inner_surface_impedance(a, resistivity, frequency, relative_permeability,
         r_i, x_i = np.where(clad, r_c, r_i), np.where(clad, x_c, x_i)
     rough = np.asarray(surface.roughness_rms, dtype=float) > 0.0
     if np.any(rough):
-        delta = np.where(clad, skin_depth(rho2, frequency, mu2),
-                         skin_depth(resistivity, frequency, relative_permeability))
-        r_i = np.where(rough, r_i * roughness_factor(surface.roughness_rms, delta), r_i)
+        k = surface_roughness_factor(surface, resistivity, frequency, relative_permeability)
+        r_i = np.where(rough, r_i * k, r_i)
     return r_i, x_i
+
+
+def surface_roughness_factor(surface: ConductorSurface, resistivity, frequency,
+                             relative_permeability):
+    r"""Roughness factor of a conductor's surface [-]: Hammerstad-Jensen
+    (:func:`cablefam.physics.roughness.roughness_factor`) with the skin depth of the surface
+    metal, the layer's where the conductor has one (``surface.thickness > 0``), else its own
+    (``resistivity`` [ohm m], ``relative_permeability`` [-], ``frequency`` [Hz])."""
+    delta = np.where(np.asarray(surface.thickness, dtype=float) > 0.0,
+                     skin_depth(surface.resistivity, frequency, surface.relative_permeability),
+                     skin_depth(resistivity, frequency, relative_permeability))
+    return roughness_factor(surface.roughness_rms, delta)
 
 
 def inner_dc_resistivity(resistivity, surface: ConductorSurface | None):
@@ -195,7 +206,6 @@ def shield_surface_impedance(resistivity, frequency, relative_permeability,
                     np.where(plated, r_plain * k_im + x_plain * k_re, x_plain))
     rough = np.asarray(surface.roughness_rms, dtype=float) > 0.0
     if np.any(rough):
-        delta = np.where(plated, skin_depth(rho2, frequency, mu2),
-                         skin_depth(resistivity, frequency, relative_permeability))
-        r_s = np.where(rough, r_s * roughness_factor(surface.roughness_rms, delta), r_s)
+        k = surface_roughness_factor(surface, resistivity, frequency, relative_permeability)
+        r_s = np.where(rough, r_s * k, r_s)
     return r_s, x_s

@@ -80,7 +80,7 @@ class CladdingLayer(Record):
 
 
 class ConductorMaterial(Record):
-    """Metal of the centre conductor or of the shield (the shield is a solid tube)."""
+    """Metal of the centre conductor or of the shield (tube, braid wires or foil)."""
 
     resistivity_ohm_m: Annotated[float, Field(gt=0, lt=1e-5)]
     temperature_coefficient_per_k: Annotated[float, Field(ge=-0.01, le=0.02)] | None = None

@@ -28,8 +28,6 @@ import numpy as np
 from cablefam.physics import conductor_surface, layered_conductor, stranding
 from cablefam.physics.internal_impedance import tube_dc_resistance
 from cablefam.physics.conductor_surface import ConductorSurface
-from cablefam.physics.roughness import roughness_factor
-from cablefam.physics.skin import skin_depth
 from cablefam.physics.thermal_inputs import resistivity_at_temperature
 
 #: Keys of a conductor table that describe its layer and roughness.
@@ -165,11 +163,9 @@ def reference_quantities(d, op) -> dict[str, np.ndarray]:
                 d.inner_radius, d.inner_strands,
                 conductor_surface.inner_dc_resistivity(rho, s))
             out["cladding_thickness_inner_m"] = s.thickness
-        delta = np.where(np.asarray(s.thickness) > 0.0,
-                         skin_depth(s.resistivity, f_hz, s.relative_permeability),
-                         skin_depth(rho, f_hz, d.inner.get("relative_permeability", 1.0)))
         if "surface_roughness_m" in d.inner:
-            out["roughness_factor_inner"] = roughness_factor(s.roughness_rms, delta)
+            out["roughness_factor_inner"] = conductor_surface.surface_roughness_factor(
+                s, rho, f_hz, d.inner.get("relative_permeability", 1.0))
     if _has_surface(d.shield):
         s = shield_surface(d)
         rho = d.shield["resistivity_ohm_m"]
@@ -178,9 +174,7 @@ def reference_quantities(d, op) -> dict[str, np.ndarray]:
             out["dc_resistance_shield_ohm_per_m"] = tube_dc_resistance(
                 d.dielectric_radius, d.shield_radius, rho_dc)
             out["cladding_thickness_shield_m"] = s.thickness
-        delta = np.where(np.asarray(s.thickness) > 0.0,
-                         skin_depth(s.resistivity, f_hz, s.relative_permeability),
-                         skin_depth(rho, f_hz, d.shield.get("relative_permeability", 1.0)))
         if "surface_roughness_m" in d.shield:
-            out["roughness_factor_shield"] = roughness_factor(s.roughness_rms, delta)
+            out["roughness_factor_shield"] = conductor_surface.surface_roughness_factor(
+                s, rho, f_hz, d.shield.get("relative_permeability", 1.0))
     return {k: np.broadcast_to(v, shape).astype(float) for k, v in out.items()}
